@@ -1,0 +1,27 @@
+import type { Config } from '../server/config';
+import { startMailCapture, type MailCapture } from './mail-capture/server';
+import { startObjectStorage, type ObjectStorageFake } from './object-storage/server';
+
+export type Fakes = { storage: ObjectStorageFake; mail: MailCapture; close(): Promise<void> };
+
+/** Starts every local stand-in on the ports named by the configuration. */
+export async function startFakes(config: Config): Promise<Fakes> {
+  const storage = await startObjectStorage({
+    port: Number(new URL(config.s3.endpoint).port),
+    directory: `${config.dataDir}/s3`,
+    bucket: config.s3.bucket,
+  });
+  const mail = await startMailCapture({
+    smtpPort: Number(new URL(config.mail.smtpUrl).port),
+    httpPort: Number(new URL(config.mail.captureUrl).port),
+    directory: `${config.dataDir}/mail`,
+  });
+  return {
+    storage,
+    mail,
+    close: async () => {
+      await mail.close();
+      await storage.close();
+    },
+  };
+}

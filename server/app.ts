@@ -1,0 +1,84 @@
+import express, { type RequestHandler } from 'express';
+import { toNodeHandler } from 'better-auth/node';
+import { pinoHttp } from 'pino-http';
+import type { Logger } from 'pino';
+import { randomUUID } from 'node:crypto';
+import { sql } from 'drizzle-orm';
+import type { Config } from './config';
+import type { Database } from './db/client';
+import type { Auth } from './auth/create-auth';
+import type { ObjectStore } from './storage/object-store';
+import { createAuthorize } from './middleware/authorize';
+import { apiNotFound, errorHandler } from './middleware/error-handler';
+import { createLabsRepository } from './repositories/labs.repository';
+import { createUsersRepository } from './repositories/users.repository';
+import { createLabsService } from './services/labs.service';
+import { createProfileService } from './services/profile.service';
+import { createAdminService } from './services/admin.service';
+import { createMailboxService } from './services/mailbox.service';
+import { labsRoutes } from './routes/labs.routes';
+import { accountRoutes } from './routes/account.routes';
+import { adminRoutes } from './routes/admin.routes';
+import { systemRoutes } from './routes/system.routes';
+import type { Route } from './routes/route';
+
+export type AppDeps = {
+  config: Config;
+  database: Database;
+  auth: Auth;
+  store: ObjectStore;
+  log: Logger;
+  // Serves the client after the API: built files or Vite's middleware.
+  client?: RequestHandler[];
+};
+
+/** Builds every API route; exported so tests can walk the route table. */
+export function buildRoutes({ config, database, auth, store }: AppDeps): Route[] {
+  const labs = createLabsRepository(database.db);
+  const users = createUsersRepository(database.db);
+  return [
+    ...systemRoutes({
+      mailbox: createMailboxService({ captureUrl: config.mail.captureUrl }),
+      info: { demo: config.fakes, doiPrefix: config.doiPrefix, mailbox: config.fakes },
+      health: async () => {
+        await database.db.execute(sql`select 1`);
+        return { status: 'ok', database: database.kind, objectStore: (await store.reachable()) ? 'ok' : 'unreachable' };
+      },
+    }),
+    ...accountRoutes(createProfileService({ users })),
+    ...labsRoutes(createLabsService({ auth, labs })),
+    ...adminRoutes(createAdminService({ users, labs })),
+  ];
+}
+
+/** The Express app; it never listens (server/main.ts does, tests use port 0). */
+export function createApp(deps: AppDeps) {
+  const { auth, log, config, database } = deps;
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('trust proxy', 'loopback');
+  app.use(
+    pinoHttp({
+      logger: log,
+      genReqId: (req, res) => {
+        const id = (req.headers['x-request-id'] as string | undefined)?.slice(0, 64) || randomUUID();
+        res.setHeader('x-request-id', id);
+        return id;
+      },
+      autoLogging: { ignore: (req) => !req.url?.startsWith('/api') },
+    }),
+  );
+
+  // better-auth reads its own body, so it comes before express.json().
+  app.all('/api/auth/*splat', toNodeHandler(auth));
+  app.use('/api', express.json({ limit: '1mb' }));
+
+  const authorize = createAuthorize({ auth, labs: createLabsRepository(database.db), fakes: config.fakes });
+  for (const r of buildRoutes(deps)) {
+    app[r.method](r.path, authorize(r.access), r.handler);
+  }
+  app.use('/api', apiNotFound);
+  for (const handler of deps.client ?? []) app.use(handler);
+  app.use(errorHandler);
+  return app;
+}

@@ -1,0 +1,105 @@
+import { z } from 'zod';
+
+/**
+ * The one place that reads the environment. Every setting has a default for
+ * the embedded mode (PGlite on disk + local fakes) and an environment variable
+ * for production; production refuses to start without the secrets it needs.
+ */
+const bool = z
+  .enum(['true', 'false', '1', '0', 'on', 'off', 'yes', 'no'])
+  .transform((v) => ['true', '1', 'on', 'yes'].includes(v));
+
+const url = z.string().url();
+
+const envSchema = z.object({
+  NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
+  HOST: z.string().min(1).default('127.0.0.1'),
+  PORT: z.coerce.number().int().min(0).max(65535).default(3000),
+  PUBLIC_BASE_URL: url.optional(),
+  DATA_DIR: z.string().min(1).default('.data'),
+  DATABASE_URL: z
+    .string()
+    .regex(/^postgres(ql)?:\/\//, 'must start with postgres:// or postgresql://')
+    .optional(),
+  FAKES: bool.optional(),
+  S3_ENDPOINT: url.default('http://127.0.0.1:4569'),
+  S3_REGION: z.string().min(1).default('us-east-1'),
+  S3_BUCKET: z.string().regex(/^[a-z0-9][a-z0-9.-]{2,62}$/, 'must be a valid bucket name').default('cohesia'),
+  S3_ACCESS_KEY_ID: z.string().min(1).default('S3RVER'),
+  S3_SECRET_ACCESS_KEY: z.string().min(1).default('S3RVER'),
+  SMTP_URL: z.string().regex(/^smtps?:\/\//, 'must start with smtp:// or smtps://').default('smtp://127.0.0.1:2525'),
+  MAIL_FROM: z.string().min(3).default('Cohesia <no-reply@cohesia.localhost>'),
+  MAIL_CAPTURE_URL: url.default('http://127.0.0.1:2580'),
+  STRIPE_SECRET_KEY: z.string().regex(/^sk_(test|live)_/, 'must be a secret key (sk_test_… or sk_live_…)').default('sk_test_cohesia_local'),
+  STRIPE_WEBHOOK_SECRET: z.string().regex(/^whsec_/, 'must start with whsec_').default('whsec_cohesia_local'),
+  DOI_PREFIX: z.string().regex(/^10\.\d{4,9}$/, 'must look like 10.NNNN (ISO 26324 prefix)').default('10.99999'),
+  BETTER_AUTH_SECRET: z.string().min(32, 'must be at least 32 characters').optional(),
+  LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
+  DEMO_SEED: bool.default(true),
+});
+
+export type Config = {
+  env: 'development' | 'production' | 'test';
+  host: string;
+  port: number;
+  publicBaseUrl: string;
+  dataDir: string;
+  database: { kind: 'pglite'; dir: string } | { kind: 'postgres'; url: string };
+  fakes: boolean;
+  s3: { endpoint: string; region: string; bucket: string; accessKeyId: string; secretAccessKey: string };
+  mail: { smtpUrl: string; from: string; captureUrl: string };
+  payments: { secretKey: string; webhookSecret: string };
+  doiPrefix: string;
+  authSecret: string;
+  logLevel: string;
+  demoSeed: boolean;
+};
+
+export class ConfigError extends Error {}
+
+// Only for the embedded mode; production must set its own.
+const EMBEDDED_AUTH_SECRET = 'cohesia-embedded-development-secret-not-for-production';
+
+/** Parses and validates the environment; throws ConfigError naming each bad variable. */
+export function loadConfig(env: Record<string, string | undefined> = process.env): Config {
+  const cleaned = Object.fromEntries(Object.entries(env).filter(([, v]) => v !== undefined && v !== ''));
+  const parsed = envSchema.safeParse(cleaned);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`);
+    throw new ConfigError(`Invalid configuration:\n${lines.join('\n')}`);
+  }
+  const e = parsed.data;
+  const production = e.NODE_ENV === 'production';
+  const missing: string[] = [];
+  if (production && !e.BETTER_AUTH_SECRET) missing.push('BETTER_AUTH_SECRET');
+  if (production && !e.PUBLIC_BASE_URL) missing.push('PUBLIC_BASE_URL');
+  if (missing.length) {
+    throw new ConfigError(
+      `Missing configuration for production:\n${missing.map((m) => `  ${m}: required when NODE_ENV=production`).join('\n')}`,
+    );
+  }
+  const dataDir = e.DATA_DIR;
+  return {
+    env: e.NODE_ENV,
+    host: e.HOST,
+    port: e.PORT,
+    publicBaseUrl: (e.PUBLIC_BASE_URL ?? `http://localhost:${e.PORT}`).replace(/\/$/, ''),
+    dataDir,
+    database: e.DATABASE_URL ? { kind: 'postgres', url: e.DATABASE_URL } : { kind: 'pglite', dir: `${dataDir}/pglite` },
+    // The local fakes run by default only in the embedded mode.
+    fakes: e.FAKES ?? (!production && !e.DATABASE_URL),
+    s3: {
+      endpoint: e.S3_ENDPOINT,
+      region: e.S3_REGION,
+      bucket: e.S3_BUCKET,
+      accessKeyId: e.S3_ACCESS_KEY_ID,
+      secretAccessKey: e.S3_SECRET_ACCESS_KEY,
+    },
+    mail: { smtpUrl: e.SMTP_URL, from: e.MAIL_FROM, captureUrl: e.MAIL_CAPTURE_URL },
+    payments: { secretKey: e.STRIPE_SECRET_KEY, webhookSecret: e.STRIPE_WEBHOOK_SECRET },
+    doiPrefix: e.DOI_PREFIX,
+    authSecret: e.BETTER_AUTH_SECRET ?? EMBEDDED_AUTH_SECRET,
+    logLevel: e.LOG_LEVEL,
+    demoSeed: e.DEMO_SEED,
+  };
+}

@@ -1,0 +1,52 @@
+import fs from 'node:fs';
+import { PGlite } from '@electric-sql/pglite';
+import { drizzle as drizzlePglite } from 'drizzle-orm/pglite';
+import { migrate as migratePglite } from 'drizzle-orm/pglite/migrator';
+import { drizzle as drizzlePg } from 'drizzle-orm/node-postgres';
+import { migrate as migratePg } from 'drizzle-orm/node-postgres/migrator';
+import type { PgDatabase, PgQueryResultHKT } from 'drizzle-orm/pg-core';
+import pg from 'pg';
+import * as schema from './schema';
+
+export type Schema = typeof schema;
+/** One Drizzle type for both engines; repositories only see this. */
+export type Db = PgDatabase<PgQueryResultHKT, Schema>;
+
+export type Database = {
+  db: Db;
+  kind: 'pglite' | 'postgres';
+  migrate(): Promise<void>;
+  close(): Promise<void>;
+  // PGlite only: an image of the whole database (test templates, backups).
+  dumpDataDir?: () => Promise<Blob>;
+};
+
+const migrationsFolder = new URL('../../drizzle', import.meta.url).pathname;
+
+/** PGlite on disk (or in memory, or from a migrated template for tests). */
+export async function openPglite(opts: { dir?: string; template?: Blob }): Promise<Database> {
+  if (opts.dir) fs.mkdirSync(opts.dir, { recursive: true }); // PGlite does not create parents
+  const client = await PGlite.create({ dataDir: opts.dir, loadDataDir: opts.template });
+  const db = drizzlePglite(client, { schema, casing: 'snake_case' });
+  return {
+    db: db as unknown as Db,
+    kind: 'pglite',
+    migrate: () => migratePglite(db, { migrationsFolder }),
+    close: () => client.close(),
+    dumpDataDir: () => client.dumpDataDir('none'),
+  };
+}
+
+/** A PostgreSQL server, through the same schema and migrations. */
+export async function openPostgres(url: string): Promise<Database> {
+  const pool = new pg.Pool({ connectionString: url, max: 10 });
+  const db = drizzlePg(pool, { schema, casing: 'snake_case' });
+  return {
+    db: db as unknown as Db,
+    kind: 'postgres',
+    migrate: () => migratePg(db, { migrationsFolder }),
+    close: () => pool.end(),
+  };
+}
+
+export { schema };

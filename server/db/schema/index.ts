@@ -1,0 +1,2 @@
+// Every table, re-exported so drizzle-kit and the auth adapter see them all.
+export * from './auth';

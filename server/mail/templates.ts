@@ -1,0 +1,36 @@
+import type { OutgoingMail } from './mailer';
+
+const footer = '\n\n— Cohesia, the shared home for collective-behaviour trajectory data.';
+
+function escapeHtml(s: string): string {
+  return s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
+}
+
+function mail(to: string, subject: string, lines: string[], link: { url: string; label: string }): OutgoingMail {
+  const text = `${lines.join('\n\n')}\n\n${link.label}: ${link.url}${footer}`;
+  const html =
+    lines.map((l) => `<p>${escapeHtml(l)}</p>`).join('') +
+    `<p><a href="${escapeHtml(link.url)}">${escapeHtml(link.label)}</a></p>` +
+    `<p style="color:#555">${escapeHtml(footer.trim())}</p>`;
+  return { to, subject, text, html };
+}
+
+export const mailTemplates = {
+  verifyEmail: (to: string, name: string, url: string) =>
+    mail(to, 'Confirm your e-mail address for Cohesia', [
+      `Hello ${name},`,
+      'Please confirm that this address is yours so you can sign in to Cohesia.',
+      'If you did not create an account, you can ignore this message.',
+    ], { url, label: 'Confirm my address' }),
+  resetPassword: (to: string, name: string, url: string) =>
+    mail(to, 'Choose a new Cohesia password', [
+      `Hello ${name},`,
+      'Someone asked to reset the password of your Cohesia account. The link works for one hour.',
+      'If it was not you, ignore this message: your password stays as it is.',
+    ], { url, label: 'Choose a new password' }),
+  labInvitation: (to: string, inviter: string, lab: string, role: string, url: string) =>
+    mail(to, `You are invited to join ${lab} on Cohesia`, [
+      `${inviter} invites you to join ${lab} as ${role}.`,
+      'Sign in or create an account with this e-mail address, then accept the invitation. It expires in 7 days.',
+    ], { url, label: 'See the invitation' }),
+};

@@ -1,0 +1,86 @@
+import type { Request, RequestHandler } from 'express';
+import { fromNodeHeaders } from 'better-auth/node';
+import { labRoleCan, type LabPermission, type LabRole } from '../../shared/lab-roles';
+import type { Auth } from '../auth/create-auth';
+import { forbidden, notFound, unauthenticated } from '../errors';
+import type { LabsRepository } from '../repositories/labs.repository';
+
+/** Who may call a route. Every route names one; there is no other check. */
+export type Access =
+  | { kind: 'public' }
+  | { kind: 'signed-in' }
+  | { kind: 'admin' }
+  // A lab route: `:slug` names the lab, the caller's lab role must grant `permission`.
+  | { kind: 'lab'; permission: LabPermission }
+  // Pages of the local fakes (mailbox), only when they run.
+  | { kind: 'fakes' };
+
+export type Actor = {
+  user: { id: string; name: string; email: string; role?: string | null; emailVerified: boolean };
+  headers: Headers;
+};
+
+export type LabContext = { id: string; slug: string; name: string; role: LabRole | null };
+
+declare module 'express-serve-static-core' {
+  interface Locals {
+    actor?: Actor;
+    lab?: LabContext;
+  }
+}
+
+export const access = {
+  public: { kind: 'public' } as Access,
+  signedIn: { kind: 'signed-in' } as Access,
+  admin: { kind: 'admin' } as Access,
+  fakes: { kind: 'fakes' } as Access,
+  lab: (permission: LabPermission): Access => ({ kind: 'lab', permission }),
+};
+
+type Deps = { auth: Auth; labs: LabsRepository; fakes: boolean };
+
+/** Builds the one authorisation middleware from a route's access rule. */
+export function createAuthorize({ auth, labs, fakes }: Deps) {
+  async function loadActor(req: Request): Promise<Actor | undefined> {
+    const headers = fromNodeHeaders(req.headers);
+    const session = await auth.api.getSession({ headers });
+    if (!session) return undefined;
+    return { user: session.user as Actor['user'], headers };
+  }
+
+  return function authorize(rule: Access): RequestHandler {
+    return async (req, res, next) => {
+      if (rule.kind === 'fakes') {
+        if (!fakes) throw notFound('This page');
+        return next();
+      }
+      const actor = await loadActor(req);
+      if (actor) res.locals.actor = actor;
+      if (rule.kind === 'public') {
+        if (req.params.slug) res.locals.lab = await labContext(String(req.params.slug), actor);
+        return next();
+      }
+      if (!actor) throw unauthenticated();
+      if (rule.kind === 'signed-in') return next();
+      if (rule.kind === 'admin') {
+        if (actor.user.role !== 'admin') throw forbidden('Only platform administrators can do this.');
+        return next();
+      }
+      const lab = await labContext(String(req.params.slug), actor);
+      if (!labRoleCan(lab.role, rule.permission)) {
+        throw forbidden(lab.role ? `As ${lab.role} of ${lab.name} you cannot do this.` : `You are not a member of ${lab.name}.`);
+      }
+      res.locals.lab = lab;
+      next();
+    };
+  };
+
+  async function labContext(slug: string, actor: Actor | undefined): Promise<LabContext> {
+    const lab = await labs.findBySlug(slug);
+    if (!lab) throw notFound('The lab');
+    const role = actor ? await labs.roleOf(lab.id, actor.user.id) : null;
+    return { id: lab.id, slug: lab.slug, name: lab.name, role };
+  }
+}
+
+export type Authorize = ReturnType<typeof createAuthorize>;

@@ -1,0 +1,116 @@
+import fs from 'node:fs';
+import path from 'node:path';
+import http from 'node:http';
+import type { AddressInfo } from 'node:net';
+import express, { type RequestHandler } from 'express';
+import pino, { type Logger } from 'pino';
+import type { Config } from './config';
+import { openPglite, openPostgres, type Database } from './db/client';
+import { lockDataDir } from './db/data-dir-lock';
+import { createAuth, type Auth } from './auth/create-auth';
+import { createMailer } from './mail/mailer';
+import { createObjectStore } from './storage/object-store';
+import { createApp } from './app';
+import { seedDemo, type DemoAccount } from './seed/demo';
+import { startFakes, type Fakes } from '../docker-free-fakes';
+
+export type ClientMode = 'dist' | 'vite' | 'none';
+
+export type StartOptions = {
+  config: Config;
+  client: ClientMode;
+  // Start the local stand-ins in this process (npm start); tests start them once for all files.
+  startFakes?: boolean;
+  // A migrated PGlite image to start from (tests); otherwise the configured database.
+  template?: Blob;
+  log?: Logger;
+};
+
+export type Running = {
+  url: string;
+  port: number;
+  auth: Auth;
+  database: Database;
+  demoAccounts: DemoAccount[] | null;
+  close(): Promise<void>;
+};
+
+const root = path.resolve(new URL('..', import.meta.url).pathname);
+
+async function clientHandlers(mode: ClientMode, onClose: Array<() => Promise<void>>): Promise<RequestHandler[]> {
+  if (mode === 'none') return [];
+  if (mode === 'vite') {
+    const { createServer } = await import('vite');
+    const vite = await createServer({ root, server: { middlewareMode: true }, appType: 'spa' });
+    onClose.push(() => vite.close());
+    return [vite.middlewares];
+  }
+  const dist = path.join(root, 'dist');
+  if (!fs.existsSync(path.join(dist, 'index.html'))) {
+    throw new Error('The client is not built: run `npx vite build` (npm start does it for you).');
+  }
+  const index = path.join(dist, 'index.html');
+  return [
+    express.static(dist, { index: false, maxAge: '1h' }),
+    // Client-side routes: every other GET that wants HTML gets the app shell.
+    (req, res, next) => (req.method === 'GET' && req.accepts('html') ? res.sendFile(index) : next()),
+  ];
+}
+
+/** Opens the data store, starts the fakes if asked, seeds demo data on an empty store, and listens. */
+export async function startCohesia(opts: StartOptions): Promise<Running> {
+  const { config } = opts;
+  const log = opts.log ?? pino({ level: config.logLevel });
+  const closers: Array<() => Promise<void>> = [];
+  const close = async () => {
+    for (const c of closers.reverse()) await c().catch((e) => log.warn({ err: e }, 'while closing'));
+  };
+  try {
+    let database: Database;
+    if (opts.template) {
+      database = await openPglite({ template: opts.template });
+    } else if (config.database.kind === 'pglite') {
+      const lock = lockDataDir(config.dataDir);
+      closers.push(async () => lock.release());
+      database = await openPglite({ dir: config.database.dir });
+    } else {
+      database = await openPostgres(config.database.url);
+    }
+    closers.push(() => database.close());
+
+    let fakes: Fakes | undefined;
+    if (opts.startFakes && config.fakes) {
+      fakes = await startFakes(config);
+      closers.push(() => fakes!.close());
+    }
+
+    await database.migrate();
+    const mailer = createMailer(config.mail.smtpUrl, config.mail.from, log);
+    closers.push(async () => mailer.close());
+    const store = createObjectStore(config.s3);
+    closers.push(async () => store.close());
+    const auth = createAuth({ db: database.db, config, mailer });
+
+    const demoAccounts = config.demoSeed ? await seedDemo({ db: database.db, auth }) : null;
+
+    const client = await clientHandlers(opts.client, closers);
+    const app = createApp({ config, database, auth, store, log, client });
+    const server = http.createServer(app);
+    await new Promise<void>((resolve, reject) => {
+      server.once('error', reject);
+      server.listen(config.port, config.host, () => resolve());
+    });
+    closers.push(
+      () =>
+        new Promise<void>((resolve) => {
+          server.close(() => resolve());
+          server.closeAllConnections();
+        }),
+    );
+    const port = (server.address() as AddressInfo).port;
+    return { url: `http://${config.host}:${port}`, port, auth, database, demoAccounts, close };
+  } catch (e) {
+    await close();
+    throw e;
+  }
+}

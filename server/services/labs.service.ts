@@ -1,0 +1,114 @@
+import type { Auth } from '../auth/create-auth';
+import { AppError, notFound } from '../errors';
+import type { LabsRepository } from '../repositories/labs.repository';
+import type { LabContext } from '../middleware/authorize';
+import { labRoleCan, type LabRole } from '../../shared/lab-roles';
+import type { CreateLab, InviteMemberInput, LabDetail, LabSummary, InvitationView } from '../../shared/contracts';
+
+type Caller = { userId: string; email: string; headers: Headers };
+
+const iso = (d: Date) => d.toISOString();
+
+/** Labs, members and invitations. Membership writes go through better-auth's organisation API. */
+export function createLabsService({ auth, labs }: { auth: Auth; labs: LabsRepository }) {
+  return {
+    async myLabs(userId: string): Promise<LabSummary[]> {
+      const rows = await labs.labsOfUser(userId);
+      const counts = await labs.memberCounts(rows.map((r) => r.id));
+      return rows.map(({ role, createdAt: _c, ...r }) => ({ ...r, memberCount: counts.get(r.id) ?? 0, myRole: role }));
+    },
+
+    async create(caller: Caller, values: CreateLab): Promise<LabSummary> {
+      if (await labs.findBySlug(values.slug)) {
+        throw new AppError('slug_taken', 'Another lab already uses this short name.', 409, { slug: 'Another lab already uses this short name' });
+      }
+      const created = await auth.api.createOrganization({
+        headers: caller.headers,
+        body: {
+          name: values.name,
+          slug: values.slug,
+          institution: values.institution || undefined,
+          rorId: values.rorId || undefined,
+          description: values.description || undefined,
+        },
+      });
+      if (!created) throw new AppError('lab_not_created', 'The lab could not be created.', 500);
+      const lab = (await labs.findById(created.id))!;
+      return { ...lab, memberCount: 1, myRole: 'lead' };
+    },
+
+    async detail(lab: LabContext): Promise<LabDetail> {
+      const row = (await labs.findById(lab.id))!;
+      const seesMembers = labRoleCan(lab.role, { lab: ['read-members'] });
+      const members = (await labs.members(lab.id)).map((m) => ({
+        ...m,
+        email: seesMembers ? m.email : null,
+        joinedAt: iso(m.joinedAt),
+      }));
+      const invitations = labRoleCan(lab.role, { invitation: ['create'] })
+        ? (await labs.invitations(lab.id)).map((i) => ({ ...i, expiresAt: iso(i.expiresAt) }))
+        : null;
+      const { createdAt: _c, ...rest } = row;
+      return { ...rest, memberCount: members.length, myRole: lab.role, members, invitations };
+    },
+
+    async invite(caller: Caller, lab: LabContext, input: InviteMemberInput) {
+      const existing = (await labs.members(lab.id)).find((m) => m.email.toLowerCase() === input.email);
+      if (existing) {
+        throw new AppError('already_member', `${input.email} is already a member of ${lab.name}.`, 409, { email: 'Already a member of this lab' });
+      }
+      const inv = await auth.api.createInvitation({
+        headers: caller.headers,
+        body: { email: input.email, role: input.role, organizationId: lab.id, resend: true },
+      });
+      return { id: inv.id, email: inv.email, role: input.role, status: inv.status, expiresAt: iso(new Date(inv.expiresAt)) };
+    },
+
+    async cancelInvitation(caller: Caller, lab: LabContext, invitationId: string) {
+      const inv = await labs.findInvitation(invitationId);
+      if (!inv || inv.labId !== lab.id) throw notFound('The invitation');
+      await auth.api.cancelInvitation({ headers: caller.headers, body: { invitationId } });
+    },
+
+    async changeRole(caller: Caller, lab: LabContext, memberId: string, role: LabRole) {
+      const target = await labs.findMember(lab.id, memberId);
+      if (!target) throw notFound('The member');
+      if (target.role === 'lead' && role !== 'lead') {
+        const leads = (await labs.members(lab.id)).filter((m) => m.role === 'lead');
+        if (leads.length === 1) {
+          throw new AppError('last_lead', 'A lab needs at least one lead: make someone else lead first.', 409);
+        }
+      }
+      await auth.api.updateMemberRole({ headers: caller.headers, body: { memberId, role, organizationId: lab.id } });
+      return { id: memberId, role };
+    },
+
+    async invitation(caller: Caller, id: string): Promise<InvitationView> {
+      const inv = await labs.findInvitation(id);
+      // Only the invited address may see it; others get the same answer as a missing one.
+      if (!inv || inv.email.toLowerCase() !== caller.email.toLowerCase()) throw notFound('The invitation');
+      const expired = inv.status === 'pending' && inv.expiresAt.getTime() < Date.now();
+      return {
+        id: inv.id,
+        labName: inv.labName,
+        labSlug: inv.labSlug,
+        role: inv.role,
+        email: inv.email,
+        status: expired ? 'expired' : inv.status,
+        expiresAt: iso(inv.expiresAt),
+        inviterName: inv.inviterName,
+      };
+    },
+
+    async respond(caller: Caller, id: string, answer: 'accept' | 'reject') {
+      const view = await this.invitation(caller, id);
+      if (view.status === 'expired') throw new AppError('invitation_expired', 'This invitation has expired. Ask the lab lead to invite you again.', 410);
+      if (view.status !== 'pending') throw new AppError('invitation_closed', `This invitation was already ${view.status}.`, 409);
+      if (answer === 'accept') await auth.api.acceptInvitation({ headers: caller.headers, body: { invitationId: id } });
+      else await auth.api.rejectInvitation({ headers: caller.headers, body: { invitationId: id } });
+      return { labSlug: view.labSlug, status: answer === 'accept' ? 'accepted' : 'rejected' };
+    },
+  };
+}
+
+export type LabsService = ReturnType<typeof createLabsService>;

@@ -1,0 +1,5 @@
+export * from './auth';
+export * from './profile';
+export * from './labs';
+export * from './admin';
+export * from './errors';

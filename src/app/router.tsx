@@ -1,0 +1,28 @@
+import { createBrowserRouter, RouterProvider } from 'react-router-dom';
+import { Layout } from './layout';
+
+// Route modules are lazy: each exports `Component`.
+const router = createBrowserRouter([
+  {
+    element: <Layout />,
+    children: [
+      { path: '/', lazy: () => import('./routes/home') },
+      { path: '/sign-in', lazy: () => import('./routes/sign-in') },
+      { path: '/sign-up', lazy: () => import('./routes/sign-up') },
+      { path: '/check-email', lazy: () => import('./routes/check-email') },
+      { path: '/forgot-password', lazy: () => import('./routes/forgot-password') },
+      { path: '/reset-password', lazy: () => import('./routes/reset-password') },
+      { path: '/account', lazy: () => import('./routes/account') },
+      { path: '/labs', lazy: () => import('./routes/my-labs') },
+      { path: '/labs/new', lazy: () => import('./routes/create-lab') },
+      { path: '/labs/:slug', lazy: () => import('./routes/lab') },
+      { path: '/invitations/:id', lazy: () => import('./routes/invitation') },
+      { path: '/admin/users', lazy: () => import('./routes/admin-users') },
+      { path: '/admin/labs', lazy: () => import('./routes/admin-labs') },
+      { path: '/dev/mailbox', lazy: () => import('./routes/mailbox') },
+      { path: '*', lazy: () => import('./routes/not-found') },
+    ],
+  },
+]);
+
+export const AppRouter = () => <RouterProvider router={router} />;

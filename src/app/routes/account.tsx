@@ -1,0 +1,22 @@
+import { Page } from '../../components/page';
+import { QueryState } from '../../components/query-state';
+import { FormAlert } from '../../components/form';
+import { useProfile } from '../../features/account/api/get-profile';
+import { ProfileForm } from '../../features/account/components/profile-form';
+import { RequireSession } from '../require-session';
+import { useSearchParams } from 'react-router-dom';
+
+export function Component() {
+  return <RequireSession>{() => <Account />}</RequireSession>;
+}
+
+function Account() {
+  const profile = useProfile();
+  const [params] = useSearchParams();
+  return (
+    <Page title="Your account" lead="How you appear to labs and in the citations of data you deposit.">
+      {params.get('error') ? <FormAlert>That confirmation link has expired or was already used.</FormAlert> : null}
+      <QueryState query={profile}>{(p) => <ProfileForm profile={p} />}</QueryState>
+    </Page>
+  );
+}

@@ -1,0 +1,52 @@
+import { useParams } from 'react-router-dom';
+import { Page, Section } from '../../components/page';
+import { DemoBadge } from '../../components/badge';
+import { QueryState } from '../../components/query-state';
+import { useLab } from '../../features/labs/api/get-lab';
+import { LabMembers } from '../../features/labs/components/lab-members';
+import { InviteForm } from '../../features/labs/components/invite-form';
+import { InvitationList } from '../../features/labs/components/invitation-list';
+import { RoleBadge } from '../../features/labs/components/role-badge';
+import { labRoleCan } from '../../../shared/lab-roles';
+
+export function Component() {
+  const { slug = '' } = useParams();
+  const lab = useLab(slug);
+  return (
+    <QueryState query={lab}>
+      {(l) => (
+        <Page
+          wide
+          title={l.name}
+          lead={
+            <span className="flex flex-wrap items-center gap-2">
+              {l.institution ? <span>{l.institution}</span> : null}
+              {l.rorId ? <a href={l.rorId} rel="noreferrer">ROR record</a> : null}
+              {l.isDemo ? <DemoBadge /> : null}
+              {l.myRole ? (
+                <span className="ml-2 flex items-center gap-1 text-sm">
+                  Your role: <RoleBadge role={l.myRole} />
+                </span>
+              ) : null}
+            </span>
+          }
+        >
+          {l.description ? <p className="mb-8 max-w-3xl font-serif leading-relaxed">{l.description}</p> : null}
+          <Section title={`Members (${l.memberCount})`}>
+            <LabMembers lab={l} />
+          </Section>
+          {labRoleCan(l.myRole, { invitation: ['create'] }) ? (
+            <>
+              <Section title="Invite a member">
+                <InviteForm slug={l.slug} />
+              </Section>
+              <Section title="Invitations">
+                <InvitationList slug={l.slug} invitations={l.invitations ?? []} />
+              </Section>
+            </>
+          ) : null}
+        </Page>
+      )}
+    </QueryState>
+  );
+}

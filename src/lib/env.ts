@@ -1,0 +1,9 @@
+import { z } from 'zod';
+
+// Checked once at start-up; a wrong build setting fails loudly, not later.
+const schema = z.object({
+  VITE_API_BASE: z.string().default(''),
+  MODE: z.string(),
+});
+
+export const env = schema.parse(import.meta.env);

@@ -1,0 +1,54 @@
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import type { TestProject } from 'vitest/node';
+import { openPglite } from '../../server/db/client';
+import { createAuth } from '../../server/auth/create-auth';
+import { seedDemo } from '../../server/seed/demo';
+import { startObjectStorage } from '../../docker-free-fakes/object-storage/server';
+import { startMailCapture } from '../../docker-free-fakes/mail-capture/server';
+
+declare module 'vitest' {
+  export interface ProvidedContext {
+    s3Endpoint: string;
+    smtpUrl: string;
+    mailCaptureUrl: string;
+    templatePath: string;
+    workDir: string;
+  }
+}
+
+/**
+ * Once per run: the real local fakes on free ports, and a migrated, demo-seeded
+ * PGlite image that every test app loads in well under a second.
+ */
+export default async function setup(project: TestProject) {
+  const workDir = fs.mkdtempSync(path.join(os.tmpdir(), 'cohesia-test-'));
+  const storage = await startObjectStorage({ port: 0, directory: path.join(workDir, 's3'), bucket: 'cohesia' });
+  const mail = await startMailCapture({ smtpPort: 0, httpPort: 0, directory: path.join(workDir, 'mail') });
+
+  const database = await openPglite({});
+  await database.migrate();
+  const auth = createAuth({
+    db: database.db,
+    config: { publicBaseUrl: 'http://127.0.0.1', authSecret: 'x'.repeat(40), env: 'test' },
+    mailer: { send: async () => {} },
+  });
+  await seedDemo({ db: database.db, auth });
+  const blob = await database.dumpDataDir!();
+  const templatePath = path.join(workDir, 'template.tar');
+  fs.writeFileSync(templatePath, Buffer.from(await blob.arrayBuffer()));
+  await database.close();
+
+  project.provide('s3Endpoint', storage.url);
+  project.provide('smtpUrl', `smtp://127.0.0.1:${mail.smtpPort}`);
+  project.provide('mailCaptureUrl', mail.httpUrl);
+  project.provide('templatePath', templatePath);
+  project.provide('workDir', workDir);
+
+  return async () => {
+    await mail.close();
+    await storage.close();
+    fs.rmSync(workDir, { recursive: true, force: true });
+  };
+}

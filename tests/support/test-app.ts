@@ -1,0 +1,72 @@
+import fs from 'node:fs';
+import { inject } from 'vitest';
+import pino from 'pino';
+import { loadConfig } from '../../server/config';
+import { startCohesia, type ClientMode, type Running } from '../../server/runtime';
+
+export type TestApp = Running & { mail: MailboxClient };
+
+/** Starts the real app on a free port over a fresh copy of the migrated, seeded template. */
+export async function startTestApp(opts: { client?: ClientMode; env?: Record<string, string> } = {}): Promise<TestApp> {
+  const template = new Blob([fs.readFileSync(inject('templatePath'))]);
+  const port = await freePort();
+  const config = loadConfig({
+    NODE_ENV: 'test',
+    PORT: String(port),
+    PUBLIC_BASE_URL: `http://127.0.0.1:${port}`,
+    DATA_DIR: `${inject('workDir')}/app-${port}`,
+    FAKES: 'on',
+    S3_ENDPOINT: inject('s3Endpoint'),
+    SMTP_URL: inject('smtpUrl'),
+    MAIL_CAPTURE_URL: inject('mailCaptureUrl'),
+    BETTER_AUTH_SECRET: 'test-secret-that-is-long-enough-0123456789',
+    LOG_LEVEL: 'silent',
+    ...opts.env,
+  });
+  const running = await startCohesia({ config, client: opts.client ?? 'none', template, log: pino({ level: 'silent' }) });
+  return { ...running, mail: mailboxClient(inject('mailCaptureUrl')) };
+}
+
+// better-auth wants the public base URL to match the origin it sees, so the
+// port is chosen before the app starts.
+async function freePort(): Promise<number> {
+  const net = await import('node:net');
+  return new Promise((resolve, reject) => {
+    const s = net.createServer();
+    s.once('error', reject);
+    s.listen(0, '127.0.0.1', () => {
+      const { port } = s.address() as { port: number };
+      s.close(() => resolve(port));
+    });
+  });
+}
+
+export type CapturedMail = { id: string; to: string[]; subject: string; text: string };
+export type MailboxClient = ReturnType<typeof mailboxClient>;
+
+/** Reads the real SMTP capture over HTTP; waits for mail that is still in flight. */
+export function mailboxClient(base: string) {
+  return {
+    async messagesTo(to: string): Promise<CapturedMail[]> {
+      const res = await fetch(`${base}/messages?to=${encodeURIComponent(to)}`);
+      return (await res.json()) as CapturedMail[];
+    },
+    async waitFor(to: string, subject: RegExp, timeoutMs = 10_000): Promise<CapturedMail> {
+      const until = Date.now() + timeoutMs;
+      for (;;) {
+        const found = (await this.messagesTo(to)).find((m) => subject.test(m.subject));
+        if (found) return found;
+        if (Date.now() > until) throw new Error(`No mail to ${to} matching ${subject} within ${timeoutMs} ms`);
+        await new Promise((r) => setTimeout(r, 100));
+      }
+    },
+  };
+}
+
+export const firstLink = (text: string): string => {
+  const m = /https?:\/\/\S+/.exec(text);
+  if (!m) throw new Error(`No link in: ${text}`);
+  return m[0];
+};
+
+export const uniqueEmail = (who: string) => `${who}.${Date.now().toString(36)}${Math.random().toString(36).slice(2, 6)}@lab.example`;
