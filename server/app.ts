@@ -21,6 +21,7 @@ import { accountRoutes } from './routes/account.routes';
 import { adminRoutes } from './routes/admin.routes';
 import { systemRoutes } from './routes/system.routes';
 import type { Route } from './routes/route';
+import { buildOpenApi } from './openapi';
 
 export type AppDeps = {
   config: Config;
@@ -74,8 +75,15 @@ export function createApp(deps: AppDeps) {
   app.use('/api', express.json({ limit: '1mb' }));
 
   const authorize = createAuthorize({ auth, labs: createLabsRepository(database.db), fakes: config.fakes });
-  for (const r of buildRoutes(deps)) {
-    app[r.method](r.path, authorize(r.access), r.handler);
+  const routes = buildRoutes(deps);
+  // Kept for tools that walk the route table (OpenAPI, authorisation checks).
+  app.locals.routes = routes;
+  const openApi = buildOpenApi(routes, config.publicBaseUrl);
+  app.get('/api/openapi.json', (_req, res) => {
+    res.json(openApi);
+  });
+  for (const r of routes) {
+    app[r.method](r.path, authorize(r.access), (req, res) => r.handler(req, res, r.body ? r.body.parse(req.body ?? {}) : undefined));
   }
   app.use('/api', apiNotFound);
   for (const handler of deps.client ?? []) app.use(handler);

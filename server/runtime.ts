@@ -11,6 +11,7 @@ import { createAuth, type Auth } from './auth/create-auth';
 import { createMailer } from './mail/mailer';
 import { createObjectStore } from './storage/object-store';
 import { createApp } from './app';
+import type { Route } from './routes/route';
 import { seedDemo, type DemoAccount } from './seed/demo';
 import { startFakes, type Fakes } from '../docker-free-fakes';
 
@@ -32,6 +33,7 @@ export type Running = {
   auth: Auth;
   database: Database;
   demoAccounts: DemoAccount[] | null;
+  routes: Route[];
   close(): Promise<void>;
 };
 
@@ -108,7 +110,7 @@ export async function startCohesia(opts: StartOptions): Promise<Running> {
         }),
     );
     const port = (server.address() as AddressInfo).port;
-    return { url: `http://${config.host}:${port}`, port, auth, database, demoAccounts, close };
+    return { url: `http://${config.host}:${port}`, port, auth, database, demoAccounts, routes: app.locals.routes as Route[], close };
   } catch (e) {
     await close();
     throw e;

@@ -220,3 +220,18 @@ describe('errors and the mailbox', () => {
     expect(res.json).toEqual({ status: 'ok', database: 'pglite', objectStore: 'ok' });
   });
 });
+
+describe('OpenAPI description', () => {
+  it('lists every API route with who may call it, generated from the route table', async () => {
+    const doc = (await httpClient(app.url).get('/api/openapi.json')).json;
+    expect(doc.openapi).toBe('3.1.0');
+    expect(app.routes.length).toBeGreaterThan(10);
+    for (const r of app.routes) {
+      const op = doc.paths[r.path.replace(/:(\w+)/g, '{$1}')]?.[r.method];
+      expect(op, `${r.method} ${r.path}`).toBeTruthy();
+      expect(op.description).toMatch(/^Who may call it/);
+    }
+    const create = doc.paths['/api/labs'].post;
+    expect(create.requestBody.content['application/json'].schema.required).toEqual(expect.arrayContaining(['name', 'slug']));
+  });
+});
