@@ -3,7 +3,7 @@ import { defineConfig } from 'vitest/config';
 // Three projects: fast unit tests beside the code, integration tests against
 // the real app + PGlite + local fakes, and browser journeys in Chromium.
 // PGlite is memory-heavy and the machine has 2 cores: integration and browser
-// files run in forks, at most two at once.
+// files run in forks, at most two at once; the groups run one after another.
 export default defineConfig({
   test: {
     projects: [
@@ -12,6 +12,7 @@ export default defineConfig({
           name: 'unit',
           include: ['shared/**/*.test.ts', 'server/**/*.test.ts', 'src/**/*.test.{ts,tsx}', 'docker-free-fakes/**/*.test.ts'],
           environment: 'node',
+          sequence: { groupOrder: 0 },
         },
       },
       {
@@ -21,6 +22,7 @@ export default defineConfig({
           globalSetup: ['tests/support/global-setup.ts'],
           pool: 'forks',
           maxWorkers: 2,
+          sequence: { groupOrder: 1 },
           testTimeout: 30_000,
           hookTimeout: 60_000,
         },
@@ -32,6 +34,7 @@ export default defineConfig({
           globalSetup: ['tests/support/global-setup.ts'],
           pool: 'forks',
           maxWorkers: 1,
+          sequence: { groupOrder: 2 },
           testTimeout: 120_000,
           hookTimeout: 120_000,
         },
