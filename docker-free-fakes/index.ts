@@ -1,8 +1,9 @@
 import type { Config } from '../server/config';
 import { startMailCapture, type MailCapture } from './mail-capture/server';
 import { startObjectStorage, type ObjectStorageFake } from './object-storage/server';
+import { startIdentifierRegistry, type IdentifierRegistryFake } from './identifier-registry/server';
 
-export type Fakes = { storage: ObjectStorageFake; mail: MailCapture; close(): Promise<void> };
+export type Fakes = { storage: ObjectStorageFake; mail: MailCapture; identifiers: IdentifierRegistryFake; close(): Promise<void> };
 
 /** Starts every local stand-in on the ports named by the configuration. */
 export async function startFakes(config: Config): Promise<Fakes> {
@@ -16,10 +17,18 @@ export async function startFakes(config: Config): Promise<Fakes> {
     httpPort: Number(new URL(config.mail.captureUrl).port),
     directory: `${config.dataDir}/mail`,
   });
+  const identifiers = await startIdentifierRegistry({
+    port: Number(new URL(config.identifiers.registryUrl).port),
+    file: `${config.dataDir}/identifiers/registry.json`,
+    user: config.identifiers.user,
+    password: config.identifiers.password,
+  });
   return {
     storage,
     mail,
+    identifiers,
     close: async () => {
+      await identifiers.close();
       await mail.close();
       await storage.close();
     },

@@ -32,6 +32,9 @@ const envSchema = z.object({
   MAIL_CAPTURE_URL: url.default('http://127.0.0.1:2580'),
   STRIPE_SECRET_KEY: z.string().regex(/^sk_(test|live)_/, 'must be a secret key (sk_test_… or sk_live_…)').default('sk_test_cohesia_local'),
   STRIPE_WEBHOOK_SECRET: z.string().regex(/^whsec_/, 'must start with whsec_').default('whsec_cohesia_local'),
+  DOI_REGISTRY_URL: url.default('http://127.0.0.1:4590'),
+  DOI_REGISTRY_USER: z.string().min(1).default('cohesia'),
+  DOI_REGISTRY_PASSWORD: z.string().min(1).default('local-registry-password'),
   DOI_PREFIX: z.string().regex(/^10\.\d{4,9}$/, 'must look like 10.NNNN (ISO 26324 prefix)').default('10.99999'),
   BETTER_AUTH_SECRET: z.string().min(32, 'must be at least 32 characters').optional(),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
@@ -50,6 +53,7 @@ export type Config = {
   mail: { smtpUrl: string; from: string; captureUrl: string };
   payments: { secretKey: string; webhookSecret: string };
   doiPrefix: string;
+  identifiers: { registryUrl: string; user: string; password: string };
   authSecret: string;
   logLevel: string;
   demoSeed: boolean;
@@ -98,6 +102,7 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     mail: { smtpUrl: e.SMTP_URL, from: e.MAIL_FROM, captureUrl: e.MAIL_CAPTURE_URL },
     payments: { secretKey: e.STRIPE_SECRET_KEY, webhookSecret: e.STRIPE_WEBHOOK_SECRET },
     doiPrefix: e.DOI_PREFIX,
+    identifiers: { registryUrl: e.DOI_REGISTRY_URL, user: e.DOI_REGISTRY_USER, password: e.DOI_REGISTRY_PASSWORD },
     authSecret: e.BETTER_AUTH_SECRET ?? EMBEDDED_AUTH_SECRET,
     logLevel: e.LOG_LEVEL,
     demoSeed: e.DEMO_SEED,

@@ -38,13 +38,14 @@ async function waitFor(check: () => boolean, ms: number, what: string) {
 describe('server/main.ts', () => {
   it('starts with demo data, refuses a second start on the same data folder, and stops cleanly on SIGINT', async () => {
     const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'cohesia-main-'));
-    const [port, s3, smtp, capture] = [await freePort(), await freePort(), await freePort(), await freePort()];
+    const [port, s3, smtp, capture, registry] = [await freePort(), await freePort(), await freePort(), await freePort(), await freePort()];
     const env = {
       DATA_DIR: dataDir,
       PORT: String(port),
       S3_ENDPOINT: `http://127.0.0.1:${s3}`,
       SMTP_URL: `smtp://127.0.0.1:${smtp}`,
       MAIL_CAPTURE_URL: `http://127.0.0.1:${capture}`,
+      DOI_REGISTRY_URL: `http://127.0.0.1:${registry}`,
     };
     const first = startMain(env);
     try {
