@@ -1,2 +1,3 @@
 // Every table, re-exported so drizzle-kit and the auth adapter see them all.
 export * from './auth';
+export * from './depositing';
