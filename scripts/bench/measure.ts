@@ -1,0 +1,72 @@
+// One measurement in its own process, so peak RSS belongs to it alone. Prints one JSON line.
+import { createReadStream, openSync, readSync, closeSync, statSync } from 'node:fs';
+import { createGunzip, type ZlibOptions } from 'node:zlib';
+import { analyzeStream } from '../../server/ingest/analyze-stream';
+
+const [kind, file, limitArg] = process.argv.slice(2);
+
+function endAtLine(path: string, approx: number): number {
+  const fd = openSync(path, 'r');
+  const b = Buffer.alloc(1 << 16);
+  const n = readSync(fd, b, 0, b.length, approx);
+  closeSync(fd);
+  const i = b.subarray(0, n).indexOf(10);
+  return approx + i;
+}
+
+async function run(): Promise<Record<string, unknown>> {
+  const size = statSync(file).size;
+  const end = limitArg ? endAtLine(file, Math.floor(size * Number(limitArg))) : undefined;
+  const stream = () => createReadStream(file, { highWaterMark: 1 << 20, end });
+  const t0 = performance.now();
+  let rows = 0;
+  let bytes = 0;
+  if (kind === 'read-bytes') {
+    for await (const c of stream()) {
+      bytes += (c as Buffer).length;
+      // Count lines so the loop touches every byte.
+      let i = -1;
+      while ((i = (c as Buffer).indexOf(10, i + 1)) >= 0) rows++;
+    }
+    rows -= 1;
+  } else if (kind === 'gunzip-only') {
+    const gz = createGunzip({ chunkSize: 1 << 20, highWaterMark: 8 << 20 } as ZlibOptions);
+    stream().pipe(gz);
+    for await (const c of gz) bytes += (c as Buffer).length;
+  } else if (kind === 'duckdb-basic') {
+    const { DuckDBInstance } = await import('@duckdb/node-api');
+    const inst = await DuckDBInstance.create(':memory:');
+    const con = await inst.connect();
+    const q = `
+      WITH r AS (SELECT frame, x, y, z, vx, vy, vz, sqrt(vx*vx + vy*vy + vz*vz) AS s FROM read_csv('${file}', header = true)),
+      f AS (SELECT frame, count(*) AS n, avg(x) AS cx, avg(y) AS cy, avg(z) AS cz, avg(s) AS ms,
+              sqrt(sum(vx/s)^2 + sum(vy/s)^2 + sum(vz/s)^2) / count(*) AS pol,
+              sum(s) AS s1, sum(s*s) AS s2, sum(s*s*s) AS s3, sum(s*s*s*s) AS s4
+            FROM r GROUP BY frame)
+      SELECT count(*) AS frames, sum(n) AS rows, min(n) AS nmin, avg(n) AS nmean, max(n) AS nmax,
+             avg(cx), avg(cy), avg(cz), avg(ms) AS mean_speed, avg(pol) AS polarization,
+             sum(s1)/sum(n) AS m1, sum(s2)/sum(n) AS m2, sum(s3)/sum(n) AS m3, sum(s4)/sum(n) AS m4 FROM f`;
+    const res = await con.runAndReadAll(q);
+    const row = res.getRowObjects()[0] as Record<string, unknown>;
+    rows = Number(row.rows);
+    bytes = size;
+    const out = { polarization: Number(row.polarization), meanSpeed: Number(row.mean_speed), frames: Number(row.frames) };
+    return { kind, rows, bytes, seconds: (performance.now() - t0) / 1000, maxRssMB: process.resourceUsage().maxRSS / 1024, check: out };
+  } else if (kind === 'ours-basic' || kind === 'ours-full') {
+    const doc = await analyzeStream(stream(), { settings: { fps: 100, mode: kind === 'ours-basic' ? 'basic' : 'full' } });
+    rows = doc.summary?.rows ?? 0;
+    bytes = end ?? size;
+    return {
+      kind,
+      rows,
+      bytes,
+      seconds: (performance.now() - t0) / 1000,
+      maxRssMB: process.resourceUsage().maxRSS / 1024,
+      status: doc.status,
+      check: { polarization: doc.summary?.polarization.mean, meanSpeed: doc.summary?.velocity.speed.mean, frames: doc.summary?.frames },
+    };
+  }
+  return { kind, rows, bytes: bytes || size, seconds: (performance.now() - t0) / 1000, maxRssMB: process.resourceUsage().maxRSS / 1024 };
+}
+
+run().then((r) => process.stdout.write(JSON.stringify(r) + '\n'));

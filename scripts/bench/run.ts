@@ -1,0 +1,106 @@
+// npm run bench [-- --rows 6000000] — not part of npm test. See README section in the result report.
+import { execFileSync } from 'node:child_process';
+import { mkdirSync, statSync } from 'node:fs';
+import { join } from 'node:path';
+import { parseArgs } from 'node:util';
+import { createSeededRandom } from '../../shared/engine/seeded-random';
+import { nearestNeighbourDistances, pairsWithinDistance, type FrameView } from '../../shared/stats/index';
+import { DEFAULT_SETTINGS } from '../../shared/engine/settings';
+import { generateBenchFile, gzipFile } from './generate';
+
+const { values } = parseArgs({ options: { rows: { type: 'string', default: '6000000' }, dir: { type: 'string', default: '.data/bench' }, only: { type: 'string' } } });
+const rows = Number(values.rows);
+const dir = values.dir!;
+mkdirSync(dir, { recursive: true });
+const csv = join(dir, `bench-${rows}.csv`);
+const gz = `${csv}.gz`;
+
+interface Line { name: string; kind: string; rows: number; bytes: number; seconds: number; maxRssMB: number; status?: string; check?: unknown }
+
+function measure(name: string, kind: string, file: string, limit?: number): Line {
+  const args = ['--import', 'tsx', join(import.meta.dirname, 'measure.ts'), kind, file, ...(limit ? [String(limit)] : [])];
+  const out = execFileSync(process.execPath, args, { encoding: 'utf8', maxBuffer: 1 << 20 });
+  const r = JSON.parse(out.trim().split('\n').pop()!) as Line;
+  r.name = name;
+  process.stderr.write(`  ${name}: ${r.seconds.toFixed(2)} s\n`);
+  return r;
+}
+
+function neighbourBench(n: number, frames: number) {
+  const rnd = createSeededRandom(n);
+  const make = (): FrameView => {
+    const x = new Float64Array(n), y = new Float64Array(n), z = new Float64Array(n);
+    for (let i = 0; i < n; i++) {
+      x[i] = rnd.normal() * 0.1;
+      y[i] = rnd.normal() * 0.1;
+      z[i] = rnd.normal() * 0.1;
+    }
+    return { count: n, dims: 3, x, y, z };
+  };
+  const fs = Array.from({ length: frames }, make);
+  const out = new Float64Array(n);
+  const time = (method: 'brute' | 'grid' | 'auto') => {
+    const t0 = performance.now();
+    for (const f of fs) {
+      const d = nearestNeighbourDistances(f, { method, out });
+      let s = 0;
+      for (let i = 0; i < n; i++) s += d[i];
+      pairsWithinDistance(f, (0.5 * s) / n, { method });
+    }
+    return (performance.now() - t0) / frames;
+  };
+  time('grid');
+  time('brute');
+  const brute = time('brute'), grid = time('grid'), auto = time('auto');
+  return { n, brute, grid, auto, picks: n >= DEFAULT_SETTINGS.bruteForceBelow ? 'grid' : 'brute' };
+}
+
+async function main() {
+  process.stderr.write(`Preparing ${csv} (${rows.toLocaleString('en-US')} rows, cached)…\n`);
+  await generateBenchFile(csv, rows);
+  await gzipFile(csv, gz);
+  const mb = (f: string) => statSync(f).size / 1e6;
+  process.stderr.write(`  plain ${mb(csv).toFixed(0)} MB, gzip ${mb(gz).toFixed(0)} MB\nMeasuring (one process per line)…\n`);
+  const lines: Line[] = [
+    measure('read-bytes (1 MiB)', 'read-bytes', csv),
+    measure('gunzip-only', 'gunzip-only', gz),
+    measure('duckdb-basic', 'duckdb-basic', csv),
+    measure('duckdb-basic-gz', 'duckdb-basic', gz),
+    measure('ours-basic', 'ours-basic', csv),
+    measure('ours-basic-gz', 'ours-basic', gz),
+    measure('ours-full', 'ours-full', csv),
+    measure('ours-full-gz', 'ours-full', gz),
+    measure('ours-full (first half)', 'ours-full', csv, 0.5),
+  ];
+  const by = Object.fromEntries(lines.map((l) => [l.name, l]));
+  const header = ['line', 'seconds', 'rows/s', 'MB/s (text)', 'peak RSS MB', 'status'];
+  // MB/s of CSV text: the plain file's size (or the part read) over the time, also for gzip input.
+  const textBytes = (l: Line) => (l.name.includes('half') ? l.bytes : statSync(csv).size);
+  const table = lines.map((l) => [l.name, l.seconds.toFixed(2), l.rows > 0 ? Math.round(l.rows / l.seconds).toLocaleString('en-US') : '—', (textBytes(l) / 1e6 / l.seconds).toFixed(0), l.maxRssMB.toFixed(0), l.status ?? '']);
+  const w = header.map((h, i) => Math.max(h.length, ...table.map((r) => r[i].length)));
+  const fmt = (r: string[]) => r.map((c, i) => (i === 0 ? c.padEnd(w[i]) : c.padStart(w[i]))).join('  ');
+  console.log(`\nBenchmark: ${rows.toLocaleString('en-US')} rows, ${mb(csv).toFixed(0)} MB CSV, ${mb(gz).toFixed(0)} MB gzip`);
+  console.log(fmt(header));
+  for (const r of table) console.log(fmt(r));
+  const ratio = (a: string, b: string) => by[a].seconds / by[b].seconds;
+  const rssHalf = by['ours-full (first half)'].maxRssMB, rssFull = by['ours-full'].maxRssMB;
+  const targets: [string, number, string, boolean][] = [
+    ['duckdb-basic / ours-basic', ratio('duckdb-basic', 'ours-basic'), '≥ 1.5', ratio('duckdb-basic', 'ours-basic') >= 1.5],
+    ['duckdb-basic / ours-full (plain)', ratio('duckdb-basic', 'ours-full'), '≥ 0.7', ratio('duckdb-basic', 'ours-full') >= 0.7],
+    ['gunzip-only / ours-full-gz', ratio('gunzip-only', 'ours-full-gz'), '≥ 0.5', ratio('gunzip-only', 'ours-full-gz') >= 0.5],
+    ['peak RSS ours-full (MB)', rssFull, '< 300', Math.max(...lines.filter((l) => l.name.startsWith('ours')).map((l) => l.maxRssMB)) < 300],
+    ['RSS full / RSS half file', rssFull / rssHalf, '≤ 1.10', rssFull / rssHalf <= 1.1],
+  ];
+  console.log('\nTargets');
+  for (const [k, v, t, ok] of targets) console.log(`  ${k.padEnd(34)} ${v.toFixed(2).padStart(8)}  target ${t.padEnd(7)} ${ok ? 'MET' : 'NOT MET'}`);
+  console.log('\nNearest neighbour + close pairs per frame (ms/frame)');
+  for (const r of [neighbourBench(100, 400), neighbourBench(2000, 40)])
+    console.log(`  N = ${String(r.n).padEnd(5)} brute ${r.brute.toFixed(3)}  spatial index ${r.grid.toFixed(3)}  speed-up ${(r.brute / r.grid).toFixed(1)}×  auto picks ${r.picks} (${r.auto.toFixed(3)})`);
+  console.log('\nCross-check (polarization, mean speed):');
+  for (const l of lines) if (l.check) console.log(`  ${l.name.padEnd(24)} ${JSON.stringify(l.check)}`);
+}
+
+main().catch((e) => {
+  console.error(e);
+  process.exit(1);
+});

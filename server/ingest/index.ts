@@ -1,0 +1,2 @@
+export { analyzeStream, type AnalyzeStreamOptions, type IngestProgress } from './analyze-stream';
+export { analyzeFile } from './analyze-file';

@@ -1,0 +1,389 @@
+import {
+  centroid,
+  correlationTimes,
+  createAutocorrelationAccumulator,
+  createMomentAccumulator,
+  createPairTracker,
+  idealGasNearestNeighbourDistance,
+  milling,
+  momentsFromAccumulator,
+  nearestNeighbourDistances,
+  pairsWithinDistance,
+  polarization,
+  quantileSorted,
+  randomHeadingPolarization,
+  shellVolume,
+  springConstantFit,
+  type FrameView,
+  type MomentAccumulator,
+  type PairEvent,
+  type PairTracker,
+} from '../stats/index';
+import { GrowableHistogram, SeriesDownsampler } from './growable-histogram';
+import { IssueCollector, rowLabel } from './issues';
+import { QuickLookSampler } from './quick-look';
+import type { EngineSettings } from './settings';
+
+/** A frame as handed to the statistics: the view plus track indices and file lines. */
+export interface EmittedFrame {
+  frame: number;
+  time: number;
+  view: FrameView;
+  track: Int32Array;
+  line: Int32Array;
+}
+
+// Channels of the radial histogram.
+const R_ALL = 0, R_V = 1, R_SPEED = 2, R_A = 3, R_AR = 4;
+
+/** Accumulates every per-frame statistic of SCIENCE.md in bounded memory. */
+export class FrameStatistics {
+  frames = 0;
+  rows = 0;
+  private firstTime = NaN;
+  private lastTime = NaN;
+  private nMin = Infinity;
+  private nMax = 0;
+  private readonly nAcc = createMomentAccumulator();
+  private readonly radiusAcc = createMomentAccumulator();
+  private readonly polAcc = createMomentAccumulator();
+  private readonly millAcc = createMomentAccumulator();
+  private readonly nnAcc = createMomentAccumulator();
+  private readonly baselineAcc = createMomentAccumulator();
+  private readonly comp: MomentAccumulator[] = [createMomentAccumulator(), createMomentAccumulator(), createMomentAccumulator()];
+  private readonly speedAcc = createMomentAccumulator();
+  private readonly compHist: GrowableHistogram[];
+  private readonly speedHist: GrowableHistogram;
+  private readonly nnHist: GrowableHistogram;
+  private readonly radial: GrowableHistogram;
+  private readonly series: Record<string, SeriesDownsampler> = {};
+  private readonly acf: ReturnType<typeof createAutocorrelationAccumulator> | null;
+  private readonly acfMaxLag: number;
+  private pairTracker: PairTracker | null = null;
+  private pairDistance: number | null;
+  private readonly calibration: { nn: number[]; frames: { frame: number; track: Int32Array; x: Float64Array; y: Float64Array; z: Float64Array }[] } = { nn: [], frames: [] };
+  readonly pairEvents: PairEvent[] = [];
+  pairEventCount = 0;
+  private pairedTracks = new Set<number>();
+  private nnScratch = new Float64Array(0);
+  private nbScratch = new Int32Array(0);
+  private densityFrames = 0;
+  readonly quickLook: QuickLookSampler | null;
+  private swapSeen = new Set<number>();
+  private fewFrames = 0;
+
+  constructor(
+    private readonly s: EngineSettings,
+    private readonly dims: 2 | 3,
+    private readonly fps: number,
+    private readonly issues: IssueCollector,
+    private readonly trackNames: string[],
+  ) {
+    const full = s.mode === 'full';
+    this.compHist = [0, 1, 2].map(() => new GrowableHistogram(s.histogramBins, 1, true));
+    this.speedHist = new GrowableHistogram(1024, 1, false);
+    this.nnHist = new GrowableHistogram(1024, 1, false);
+    this.radial = new GrowableHistogram(s.radialBins, 5, false);
+    for (const k of ['individuals', 'cx', 'cy', 'cz', 'radius', 'meanSpeed', 'polarization', 'milling', 'meanNearestNeighbour'])
+      this.series[k] = new SeriesDownsampler(s.seriesPoints);
+    this.acfMaxLag = Math.max(1, Math.round(s.autocorrelationMaxLag * fps));
+    this.acf = full ? createAutocorrelationAccumulator(this.acfMaxLag, s.autocorrelationOriginStride) : null;
+    this.pairDistance = s.pairDistance;
+    if (full && this.pairDistance !== null) this.startPairs(this.pairDistance);
+    this.quickLook = full ? new QuickLookSampler(s.quickLookSeconds, s.quickLookFps, fps, dims) : null;
+  }
+
+  private startPairs(d: number): void {
+    this.pairDistance = d;
+    this.pairTracker = createPairTracker({ maxDistance: d, minDurationFrames: Math.max(1, Math.round(this.s.pairMinDuration * this.fps)), fps: this.fps });
+  }
+
+  add(f: EmittedFrame): void {
+    const { view, track } = f;
+    const n = view.count;
+    const full = this.s.mode === 'full';
+    const dims = this.dims;
+    this.frames++;
+    this.rows += n;
+    if (!(this.firstTime === this.firstTime)) this.firstTime = f.time;
+    this.lastTime = f.time;
+    if (n < this.nMin) this.nMin = n;
+    if (n > this.nMax) this.nMax = n;
+    this.nAcc.add(n);
+    if (full && n < this.s.minIndividuals) {
+      this.fewFrames++;
+      this.issues.add('few-individuals', () => `${rowLabel(f.line[0])}: frame ${f.frame} holds only ${n} individual${n === 1 ? '' : 's'}; group statistics need about ${this.s.minIndividuals} or more (J. R. Soc. Interface 11, 2014).`, f.line[0]);
+    }
+    const c = centroid(view);
+    const t = f.time;
+    this.series.individuals.add(t, n);
+    this.series.cx.add(t, c.x);
+    this.series.cy.add(t, c.y);
+    this.series.cz.add(t, c.z);
+    const { x, y, z } = view;
+    const vx = view.vx!, vy = view.vy!, vz = view.vz!;
+    let sumSpeed = 0, nSpeed = 0, r2 = 0, nr = 0;
+    const hasV = vx !== undefined;
+    const hasA = view.ax !== undefined;
+    for (let i = 0; i < n; i++) {
+      const dx = x[i] - c.x, dy = y[i] - c.y, dz = dims === 3 ? z[i] - c.z : 0;
+      const rr = dx * dx + dy * dy + dz * dz;
+      const r = Math.sqrt(rr);
+      if (r === r) {
+        r2 += rr;
+        nr++;
+      }
+      let k = -1;
+      if (full) {
+        k = this.radial.index(r);
+        if (k >= 0) this.radial.channels[R_ALL][k]++;
+      }
+      if (hasV) {
+        const ux = vx[i], uy = vy[i], uz = dims === 3 ? vz[i] : 0;
+        const sp = Math.sqrt(ux * ux + uy * uy + uz * uz);
+        if (sp === sp) {
+          sumSpeed += sp;
+          nSpeed++;
+          this.speedAcc.add(sp);
+          this.comp[0].add(ux);
+          this.comp[1].add(uy);
+          if (dims === 3) this.comp[2].add(uz);
+          if (full) {
+            this.speedHist.add(sp, 0, 1);
+            this.compHist[0].add(ux, 0, 1);
+            this.compHist[1].add(uy, 0, 1);
+            if (dims === 3) this.compHist[2].add(uz, 0, 1);
+            if (k >= 0) {
+              this.radial.channels[R_V][k]++;
+              this.radial.channels[R_SPEED][k] += sp;
+            }
+            this.acf!.add(track[i], f.frame, ux, uy, uz);
+          }
+        }
+      }
+      if (full && hasA && k >= 0 && r > 0) {
+        const ar = (view.ax![i] * dx + view.ay![i] * dy + (dims === 3 ? view.az![i] * dz : 0)) / r;
+        if (ar === ar) {
+          this.radial.channels[R_A][k]++;
+          this.radial.channels[R_AR][k] += ar;
+        }
+      }
+    }
+    const radius = nr > 0 ? Math.sqrt(r2 / nr) : NaN;
+    this.radiusAcc.add(radius);
+    this.series.radius.add(t, radius);
+    this.series.meanSpeed.add(t, nSpeed > 0 ? sumSpeed / nSpeed : NaN);
+    const phi = polarization(view);
+    this.polAcc.add(phi);
+    this.series.polarization.add(t, phi);
+    if (phi === phi) this.baselineAcc.add(randomHeadingPolarization(n, dims));
+    if (!full) return;
+    this.densityFrames++;
+    const om = milling(view, c);
+    this.millAcc.add(om);
+    this.series.milling.add(t, om);
+    this.neighbours(f);
+    this.quickLook!.add(f, this.trackNames);
+    if (this.frames % 512 === 0) this.acf!.evictBefore(f.frame - 1);
+  }
+
+  private neighbours(f: EmittedFrame): void {
+    const { view, track, line } = f;
+    const n = view.count;
+    if (this.nnScratch.length < n) {
+      this.nnScratch = new Float64Array(2 * n);
+      this.nbScratch = new Int32Array(2 * n);
+    }
+    const method = this.s.neighbourMethod;
+    const d = nearestNeighbourDistances(view, { method, bruteForceBelow: this.s.bruteForceBelow, out: this.nnScratch, neighbour: this.nbScratch });
+    let s = 0, k = 0;
+    for (let i = 0; i < n; i++) {
+      const di = d[i];
+      if (!(di === di)) continue;
+      s += di;
+      k++;
+      this.nnAcc.add(di);
+      this.nnHist.add(di, 0, 1);
+      if (di < this.s.identitySwapDistance) {
+        const j = this.nbScratch[i];
+        const a = Math.min(track[i], track[j]), b = Math.max(track[i], track[j]);
+        const key = a * 4294967296 + b;
+        if (i < j || this.nbScratch[j] !== i) {
+          if (!this.swapSeen.has(key) && this.swapSeen.size < 100000) this.swapSeen.add(key);
+          this.issues.add(
+            'identity-swap',
+            () => `${rowLabel(line[i])}: tracks ${this.trackNames[track[i]]} and ${this.trackNames[track[j]]} are only ${(di * 1000).toPrecision(2)} mm apart at frame ${f.frame} — possibly one animal tracked twice, or swapped identities.`,
+            line[i],
+          );
+        }
+      }
+    }
+    this.series.meanNearestNeighbour.add(f.time, k > 0 ? s / k : NaN);
+    if (!this.pairTracker) {
+      // Calibrate d* on the first frames, keeping their positions to replay.
+      for (let i = 0; i < n; i++) if (d[i] === d[i]) this.calibration.nn.push(d[i]);
+      this.calibration.frames.push({
+        frame: f.frame,
+        track: track.slice(0, n),
+        x: Float64Array.from(view.x as ArrayLike<number>).subarray(0, n),
+        y: Float64Array.from(view.y as ArrayLike<number>).subarray(0, n),
+        z: Float64Array.from(view.z as ArrayLike<number>).subarray(0, n),
+      });
+      if (this.calibration.frames.length >= this.s.pairCalibrationFrames) this.calibrate();
+      return;
+    }
+    this.pairFrame(f.frame, view, track);
+  }
+
+  private calibrate(): void {
+    const sorted = Float64Array.from(this.calibration.nn).sort();
+    const med = quantileSorted(sorted, 0.5);
+    this.startPairs(med > 0 ? this.s.pairDistanceFactor * med : 0);
+    for (const cf of this.calibration.frames)
+      this.pairFrame(cf.frame, { count: cf.track.length, dims: this.dims, x: cf.x, y: cf.y, z: cf.z }, cf.track);
+    this.calibration.frames = [];
+    this.calibration.nn = [];
+  }
+
+  private pairFrame(frame: number, view: FrameView, track: Int32Array): void {
+    const d = this.pairDistance!;
+    if (!(d > 0)) return;
+    const p = pairsWithinDistance(view, d, { method: this.s.neighbourMethod, bruteForceBelow: this.s.bruteForceBelow });
+    const a = new Int32Array(p.count), b = new Int32Array(p.count);
+    for (let k = 0; k < p.count; k++) {
+      a[k] = track[p.a[k]];
+      b[k] = track[p.b[k]];
+    }
+    this.record(this.pairTracker!.update(frame, a, b, p.distance, p.count));
+  }
+
+  private record(events: PairEvent[]): void {
+    for (const e of events) {
+      this.pairEventCount++;
+      this.pairedTracks.add(e.a);
+      this.pairedTracks.add(e.b);
+      if (this.pairEvents.length < this.s.maxPairEvents) this.pairEvents.push(e);
+    }
+  }
+
+  /** Closes streaming state (pairs still open, calibration of short files). */
+  finish(): void {
+    if (this.s.mode !== 'full') return;
+    if (!this.pairTracker && this.calibration.frames.length > 0) this.calibrate();
+    if (this.pairTracker) this.record(this.pairTracker.finish());
+  }
+
+  /** Summary and plot series; `tracks` is the number of tracks in the file. */
+  summary(tracks: number) {
+    const full = this.s.mode === 'full';
+    const m = (a: MomentAccumulator) => momentsFromAccumulator(a);
+    const comps = (this.dims === 3 ? ['vx', 'vy', 'vz'] : ['vx', 'vy']).map((name, i) => {
+      const mo = m(this.comp[i]);
+      return { name, mean: mo.mean, standardDeviation: mo.standardDeviation, skewness: mo.skewness, kurtosis: mo.kurtosis, count: mo.count };
+    });
+    const sp = m(this.speedAcc);
+    const quant = (h: GrowableHistogram) => ({ p05: h.quantile(0.05), p25: h.quantile(0.25), p50: h.quantile(0.5), p75: h.quantile(0.75), p95: h.quantile(0.95) });
+    const nn = m(this.nnAcc);
+    // Ideal-gas reference at the mean density N/(4π/3 R³·…) is not meaningful for a bounded group; report it at the
+    // density of the core: N over the volume of the sphere of radius R (the RMS radius).
+    const R = m(this.radiusAcc).mean;
+    const N = m(this.nAcc).mean;
+    const coreDensity = this.dims === 3 ? N / ((4 / 3) * Math.PI * R ** 3) : N / (Math.PI * R * R);
+    const rad = this.radialSummary();
+    const acfRes = this.acf ? this.acf.result() : null;
+    const lagStep = 1 / this.fps;
+    const acfTimes = acfRes ? correlationTimes(acfRes.rho, lagStep) : { firstZeroCrossing: NaN, eFoldingTime: NaN };
+    const pol = m(this.polAcc);
+    const mil = m(this.millAcc);
+    return {
+      scalars: {
+        frames: this.frames,
+        rows: this.rows,
+        durationS: this.frames > 0 ? this.lastTime - this.firstTime + 1 / this.fps : 0,
+        individualsPerFrame: { min: this.frames > 0 ? this.nMin : NaN, mean: m(this.nAcc).mean, max: this.frames > 0 ? this.nMax : NaN },
+        radius: { mean: R, standardDeviation: m(this.radiusAcc).standardDeviation },
+        velocity: {
+          components: comps,
+          speed: { mean: sp.mean, standardDeviation: sp.standardDeviation, skewness: sp.skewness, kurtosis: sp.kurtosis, count: sp.count, quantiles: full ? quant(this.speedHist) : null },
+        },
+        polarization: { mean: pol.mean, standardDeviation: pol.standardDeviation, randomHeadingsBaseline: m(this.baselineAcc).mean },
+        milling: full ? { mean: mil.mean, standardDeviation: mil.standardDeviation } : null,
+        nearestNeighbour: full
+          ? { mean: nn.mean, standardDeviation: nn.standardDeviation, median: this.nnHist.quantile(0.5), idealGasMeanAtCoreDensity: idealGasNearestNeighbourDistance(coreDensity, this.dims) }
+          : null,
+        springConstant: full ? rad.fit : null,
+        autocorrelation: full ? { firstZeroCrossingS: acfTimes.firstZeroCrossing, eFoldingTimeS: acfTimes.eFoldingTime, maxLagS: this.acfMaxLag / this.fps } : null,
+        pairs: full
+          ? {
+              distanceThreshold: this.pairDistance,
+              minDurationS: this.s.pairMinDuration,
+              events: this.pairEventCount,
+              eventsListed: this.pairEvents.length,
+              pairedFraction: tracks > 0 ? this.pairedTracks.size / tracks : NaN,
+            }
+          : null,
+      },
+      series: {
+        time: Object.fromEntries(Object.entries(this.series).filter(([k]) => full || !['milling', 'meanNearestNeighbour'].includes(k)).map(([k, v]) => [k, v.result()])),
+        histograms: full
+          ? {
+              ...Object.fromEntries(comps.map((c, i) => [c.name, this.histogramSeries(this.compHist[i])])),
+              speed: this.histogramSeries(this.speedHist, this.s.histogramBins),
+              nearestNeighbour: this.histogramSeries(this.nnHist, this.s.histogramBins),
+            }
+          : null,
+        profiles: full ? rad.profiles : null,
+        autocorrelation: acfRes ? { lagS: Array.from(acfRes.rho, (_, i) => i * lagStep), rho: Array.from(acfRes.rho) } : null,
+      },
+    };
+  }
+
+  /** Normalised histogram (density) over the used range, re-binned to about `bins` bins. */
+  private histogramSeries(h: GrowableHistogram, bins?: number) {
+    const [a, b] = h.usedRange(0);
+    if (a < 0) return { edges: [], density: [] };
+    const e = h.edges();
+    const c = h.channels[0];
+    const group = bins ? Math.max(1, Math.ceil((b - a + 1) / bins)) : 1;
+    const edges: number[] = [e[a]];
+    const counts: number[] = [];
+    for (let i = a; i <= b; i += group) {
+      let s = 0;
+      for (let j = i; j < Math.min(i + group, b + 1); j++) s += c[j];
+      counts.push(s);
+      edges.push(e[Math.min(i + group, b + 1)]);
+    }
+    const total = counts.reduce((x, y) => x + y, 0);
+    const density = counts.map((v, i) => v / (total * (edges[i + 1] - edges[i])));
+    return { edges, density };
+  }
+
+  private radialSummary() {
+    const h = this.radial;
+    const [, last] = h.usedRange(R_ALL);
+    const e = h.edges();
+    const nb = last + 1;
+    const r: number[] = [], density: number[] = [], speed: number[] = [], speedCount: number[] = [], ar: number[] = [], arCount: number[] = [];
+    for (let i = 0; i < nb; i++) {
+      r.push((e[i] + e[i + 1]) / 2);
+      density.push(h.channels[R_ALL][i] / (Math.max(1, this.densityFrames) * shellVolume(e[i], e[i + 1], this.dims)));
+      speedCount.push(h.channels[R_V][i]);
+      speed.push(h.channels[R_V][i] > 0 ? h.channels[R_SPEED][i] / h.channels[R_V][i] : NaN);
+      arCount.push(h.channels[R_A][i]);
+      ar.push(h.channels[R_A][i] > 0 ? h.channels[R_AR][i] / h.channels[R_A][i] : NaN);
+    }
+    const fit = springConstantFit(r, ar, arCount, this.s.springFitMinCount);
+    return {
+      fit: {
+        throughOrigin: { springConstant: fit.throughOrigin.springConstant, standardError: fit.throughOrigin.standardError, rSquared: fit.throughOrigin.rSquared },
+        withIntercept: fit.withIntercept,
+        binsUsed: fit.binsUsed,
+      },
+      profiles: {
+        radialDensity: { r, density },
+        speedVsDistance: { r, meanSpeed: speed, count: speedCount },
+        radialAcceleration: { r, meanRadialAcceleration: ar, count: arCount },
+      },
+    };
+  }
+}

@@ -1,0 +1,11 @@
+export { ENGINE_VERSION, DEFAULT_SETTINGS, resolveSettings, metresPerUnit, type EngineSettings, type LengthUnit, type Axis } from './settings';
+export { STANDARD_COLUMNS, resolveColumns, normaliseHeader, unitFromHeader, type ColumnMapping, type StandardColumn } from './columns';
+export { ERROR_KINDS, WARNING_KINDS, IssueCollector, type Issue, type IssueKind, type ErrorKind, type WarningKind } from './issues';
+export { DelimitedTextParser, parseNumberBytes, type FileLayout, type RowBatch } from './text-parser';
+export { FramePipeline, type TrackSummary } from './frame-pipeline';
+export { FrameStatistics, type EmittedFrame } from './frame-statistics';
+export { GrowableHistogram, SeriesDownsampler } from './growable-histogram';
+export { QuickLookSampler, type QuickLook } from './quick-look';
+export { createIngest, analyzeBytes, type Ingest, type IngestOptions } from './ingest';
+export { buildResultDocument, toJsonSafe, RESULT_SCHEMA_ID, RESULT_SCHEMA_VERSION, type ResultDocument } from './result-document';
+export { createSeededRandom, type SeededRandom } from './seeded-random';

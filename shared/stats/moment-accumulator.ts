@@ -1,0 +1,94 @@
+/** Streaming central moments up to order four. */
+export interface MomentAccumulator {
+  /** Adds one value; non-finite values are skipped. */
+  add(value: number): void;
+  /** Merges another accumulator into this one (parallel formula). */
+  merge(other: MomentAccumulator): void;
+  readonly count: number;
+  readonly mean: number;
+  /** Sums of powers of deviations from the mean (M2, M3, M4). */
+  readonly m2: number;
+  readonly m3: number;
+  readonly m4: number;
+}
+
+/**
+ * Creates a streaming accumulator of the mean and the second to fourth
+ * central moments.
+ *
+ * Method: one-pass update of Welford generalised to higher moments, and the
+ * pairwise merge formula, from "Formulas for robust, one-pass parallel
+ * computation of covariances and arbitrary-order statistical moments"
+ * (Pébay, Sandia report SAND2008-6212, 2008). No catastrophic cancellation:
+ * deviations are taken from the running mean.
+ *
+ * Units: those of the values. Empty: `count` 0, `mean` NaN, moments 0.
+ */
+export function createMomentAccumulator(): MomentAccumulator {
+  let n = 0;
+  let mean = 0;
+  let m2 = 0;
+  let m3 = 0;
+  let m4 = 0;
+  const acc: MomentAccumulator = {
+    add(value: number): void {
+      if (!Number.isFinite(value)) return;
+      const n1 = n;
+      n += 1;
+      const delta = value - mean;
+      const deltaN = delta / n;
+      const deltaN2 = deltaN * deltaN;
+      const term1 = delta * deltaN * n1;
+      mean += deltaN;
+      m4 += term1 * deltaN2 * (n * n - 3 * n + 3) + 6 * deltaN2 * m2 - 4 * deltaN * m3;
+      m3 += term1 * deltaN * (n - 2) - 3 * deltaN * m2;
+      m2 += term1;
+    },
+    merge(other: MomentAccumulator): void {
+      const nb = other.count;
+      if (nb === 0) return;
+      if (n === 0) {
+        n = nb;
+        mean = other.mean;
+        m2 = other.m2;
+        m3 = other.m3;
+        m4 = other.m4;
+        return;
+      }
+      const na = n;
+      const nx = na + nb;
+      const delta = other.mean - mean;
+      const d2 = delta * delta;
+      const d3 = d2 * delta;
+      const d4 = d2 * d2;
+      const newM4 =
+        m4 + other.m4 + (d4 * na * nb * (na * na - na * nb + nb * nb)) / (nx * nx * nx) +
+        (6 * d2 * (na * na * other.m2 + nb * nb * m2)) / (nx * nx) +
+        (4 * delta * (na * other.m3 - nb * m3)) / nx;
+      const newM3 =
+        m3 + other.m3 + (d3 * na * nb * (na - nb)) / (nx * nx) + (3 * delta * (na * other.m2 - nb * m2)) / nx;
+      const newM2 = m2 + other.m2 + (d2 * na * nb) / nx;
+      mean += (delta * nb) / nx;
+      n = nx;
+      m2 = newM2;
+      m3 = newM3;
+      m4 = newM4;
+    },
+    get count() {
+      return n;
+    },
+    get mean() {
+      return n === 0 ? NaN : mean;
+    },
+    get m2() {
+      return m2;
+    },
+    get m3() {
+      return m3;
+    },
+    get m4() {
+      return m4;
+    },
+  };
+  return acc;
+}
