@@ -2,8 +2,9 @@ import type { Config } from '../server/config';
 import { startMailCapture, type MailCapture } from './mail-capture/server';
 import { startObjectStorage, type ObjectStorageFake } from './object-storage/server';
 import { startIdentifierRegistry, type IdentifierRegistryFake } from './identifier-registry/server';
+import { startPaymentsStandIn, type PaymentsStandIn } from './payments/server';
 
-export type Fakes = { storage: ObjectStorageFake; mail: MailCapture; identifiers: IdentifierRegistryFake; close(): Promise<void> };
+export type Fakes = { storage: ObjectStorageFake; mail: MailCapture; identifiers: IdentifierRegistryFake; payments: PaymentsStandIn; close(): Promise<void> };
 
 /** Starts every local stand-in on the ports named by the configuration. */
 export async function startFakes(config: Config): Promise<Fakes> {
@@ -23,11 +24,20 @@ export async function startFakes(config: Config): Promise<Fakes> {
     user: config.identifiers.user,
     password: config.identifiers.password,
   });
+  const payments = await startPaymentsStandIn({
+    port: Number(new URL(config.payments.apiUrl).port),
+    directory: `${config.dataDir}/payments`,
+    webhookSecret: config.payments.webhookSecret,
+  });
+  // The stand-in sends this installation's events to its webhook endpoint.
+  payments.registerEndpoint(config.payments.secretKey, `${config.publicBaseUrl}/api/billing/webhook`);
   return {
     storage,
     mail,
     identifiers,
+    payments,
     close: async () => {
+      await payments.close();
       await identifiers.close();
       await mail.close();
       await storage.close();

@@ -22,6 +22,9 @@ import { adminRoutes } from './routes/admin.routes';
 import { systemRoutes } from './routes/system.routes';
 import type { Route } from './routes/route';
 import { buildOpenApi } from './openapi';
+import type { Mailer } from './mail/mailer';
+import type { DepositingModule } from './depositing-module';
+import { billingModule, billingRoutes, billingWebhookHandler, WEBHOOK_PATH } from './routes/billing.routes';
 
 export type AppDeps = {
   config: Config;
@@ -29,12 +32,16 @@ export type AppDeps = {
   auth: Auth;
   store: ObjectStore;
   log: Logger;
+  // Outgoing mail of the app's own notices (billing); better-auth has its own.
+  mailer?: Mailer;
+  // Datasets, drafts, uploads and releases (built with the job queue in runtime.ts).
+  depositing?: DepositingModule;
   // Serves the client after the API: built files or Vite's middleware.
   client?: RequestHandler[];
 };
 
 /** Builds every API route; exported so tests can walk the route table. */
-export function buildRoutes({ config, database, auth, store }: AppDeps): Route[] {
+export function buildRoutes({ config, database, auth, store, log, mailer, depositing }: AppDeps): Route[] {
   const labs = createLabsRepository(database.db);
   const users = createUsersRepository(database.db);
   return [
@@ -49,6 +56,8 @@ export function buildRoutes({ config, database, auth, store }: AppDeps): Route[]
     ...accountRoutes(createProfileService({ users })),
     ...labsRoutes(createLabsService({ auth, labs })),
     ...adminRoutes(createAdminService({ users, labs })),
+    ...billingRoutes(billingModule({ config, database, log, mailer })),
+    ...(depositing?.routes ?? []),
   ];
 }
 
@@ -72,6 +81,8 @@ export function createApp(deps: AppDeps) {
 
   // better-auth reads its own body, so it comes before express.json().
   app.all('/api/auth/*splat', toNodeHandler(auth));
+  // The payment provider signs the exact bytes it sends, so its webhook reads the raw body too.
+  app.post(WEBHOOK_PATH, express.raw({ type: '*/*', limit: '1mb' }), billingWebhookHandler(billingModule(deps)));
   app.use('/api', express.json({ limit: '1mb' }));
 
   const authorize = createAuthorize({ auth, labs: createLabsRepository(database.db), fakes: config.fakes });

@@ -32,6 +32,10 @@ const envSchema = z.object({
   MAIL_CAPTURE_URL: url.default('http://127.0.0.1:2580'),
   STRIPE_SECRET_KEY: z.string().regex(/^sk_(test|live)_/, 'must be a secret key (sk_test_… or sk_live_…)').default('sk_test_cohesia_local'),
   STRIPE_WEBHOOK_SECRET: z.string().regex(/^whsec_/, 'must start with whsec_').default('whsec_cohesia_local'),
+  // The payment stand-in by default; https://api.stripe.com is the real provider (test or live by the key).
+  STRIPE_API_URL: url.default('http://127.0.0.1:12111'),
+  PAYMENTS_GRACE_DAYS: z.coerce.number().min(0).max(365).default(7),
+  FREE_TIER_BYTES: z.coerce.number().int().min(0).default(1_000_000_000),
   DOI_REGISTRY_URL: url.default('http://127.0.0.1:4590'),
   DOI_REGISTRY_USER: z.string().min(1).default('cohesia'),
   DOI_REGISTRY_PASSWORD: z.string().min(1).default('local-registry-password'),
@@ -51,7 +55,7 @@ export type Config = {
   fakes: boolean;
   s3: { endpoint: string; region: string; bucket: string; accessKeyId: string; secretAccessKey: string };
   mail: { smtpUrl: string; from: string; captureUrl: string };
-  payments: { secretKey: string; webhookSecret: string };
+  payments: { secretKey: string; webhookSecret: string; apiUrl: string; graceDays: number; freeTierBytes: number };
   doiPrefix: string;
   identifiers: { registryUrl: string; user: string; password: string };
   authSecret: string;
@@ -100,7 +104,13 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
       secretAccessKey: e.S3_SECRET_ACCESS_KEY,
     },
     mail: { smtpUrl: e.SMTP_URL, from: e.MAIL_FROM, captureUrl: e.MAIL_CAPTURE_URL },
-    payments: { secretKey: e.STRIPE_SECRET_KEY, webhookSecret: e.STRIPE_WEBHOOK_SECRET },
+    payments: {
+      secretKey: e.STRIPE_SECRET_KEY,
+      webhookSecret: e.STRIPE_WEBHOOK_SECRET,
+      apiUrl: e.STRIPE_API_URL.replace(/\/$/, ''),
+      graceDays: e.PAYMENTS_GRACE_DAYS,
+      freeTierBytes: e.FREE_TIER_BYTES,
+    },
     doiPrefix: e.DOI_PREFIX,
     identifiers: { registryUrl: e.DOI_REGISTRY_URL, user: e.DOI_REGISTRY_USER, password: e.DOI_REGISTRY_PASSWORD },
     authSecret: e.BETTER_AUTH_SECRET ?? EMBEDDED_AUTH_SECRET,

@@ -12,6 +12,8 @@ import { createMailer } from './mail/mailer';
 import { createObjectStore } from './storage/object-store';
 import { createApp } from './app';
 import type { Route } from './routes/route';
+import { createJobQueue, type JobQueue } from './jobs/job-queue';
+import { createDepositingModule, type DepositingModule } from './depositing-module';
 import { seedDemo, type DemoAccount } from './seed/demo';
 import { startFakes, type Fakes } from '../docker-free-fakes';
 
@@ -25,6 +27,8 @@ export type StartOptions = {
   // A migrated PGlite image to start from (tests); otherwise the configured database.
   template?: Blob;
   log?: Logger;
+  // Run background jobs in this process (default); false for an API-only instance or a test that drives jobs itself.
+  workers?: boolean;
 };
 
 export type Running = {
@@ -34,6 +38,8 @@ export type Running = {
   database: Database;
   demoAccounts: DemoAccount[] | null;
   routes: Route[];
+  jobs: JobQueue;
+  depositing: DepositingModule;
   close(): Promise<void>;
 };
 
@@ -95,8 +101,17 @@ export async function startCohesia(opts: StartOptions): Promise<Running> {
 
     const demoAccounts = config.demoSeed ? await seedDemo({ db: database.db, auth }) : null;
 
+    const jobs = createJobQueue({ db: database.db, log: log.child({ area: 'jobs' }) });
+    const depositing = createDepositingModule({ config, database, store, log, mailer, jobs });
+    if (opts.workers !== false) {
+      // One process owns an embedded data folder, so jobs it finds running were cut off by a crash.
+      if (database.kind === 'pglite') await jobs.requeueOrphans();
+      jobs.start(depositing.handlers, depositing.onFinalFailure);
+      closers.push(() => jobs.stop());
+    }
+
     const client = await clientHandlers(opts.client, closers);
-    const app = createApp({ config, database, auth, store, log, client });
+    const app = createApp({ config, database, auth, store, log, client, mailer, depositing });
     const server = http.createServer(app);
     await new Promise<void>((resolve, reject) => {
       server.once('error', reject);
@@ -110,7 +125,7 @@ export async function startCohesia(opts: StartOptions): Promise<Running> {
         }),
     );
     const port = (server.address() as AddressInfo).port;
-    return { url: `http://${config.host}:${port}`, port, auth, database, demoAccounts, routes: app.locals.routes as Route[], close };
+    return { url: `http://${config.host}:${port}`, port, auth, database, demoAccounts, routes: app.locals.routes as Route[], jobs, depositing, close };
   } catch (e) {
     await close();
     throw e;

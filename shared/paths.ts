@@ -13,5 +13,17 @@ export const paths = {
   invitation: (id: string) => `/invitations/${encodeURIComponent(id)}`,
   adminUsers: '/admin/users',
   adminLabs: '/admin/labs',
+  adminPlans: '/admin/plans',
+  labStorage: (slug: string) => `/labs/${encodeURIComponent(slug)}/storage`,
+  labDatasets: (slug: string) => `/labs/${encodeURIComponent(slug)}/datasets`,
+  newDataset: (slug: string) => `/labs/${encodeURIComponent(slug)}/datasets/new`,
+  draft: (slug: string, draftId: string) => `/labs/${encodeURIComponent(slug)}/drafts/${encodeURIComponent(draftId)}`,
+  draftFile: (slug: string, draftId: string, fileId: string) =>
+    `/labs/${encodeURIComponent(slug)}/drafts/${encodeURIComponent(draftId)}/files/${encodeURIComponent(fileId)}`,
+  reviewQueue: (slug: string) => `/labs/${encodeURIComponent(slug)}/review`,
+  // Landing pages: a release, and a dataset's all-versions page (shows the newest release).
+  release: (suffix: string) => `/releases/${suffix}`,
+  datasetLanding: (suffix: string) => `/datasets/${suffix}`,
+  resolveDoi: (doi: string) => `/doi/${doi}`,
   mailbox: '/dev/mailbox',
 } as const;

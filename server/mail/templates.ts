@@ -16,6 +16,22 @@ function mail(to: string, subject: string, lines: string[], link: { url: string;
 }
 
 export const mailTemplates = {
+  draftSubmitted: (to: string, depositor: string, title: string, lab: string, url: string) =>
+    mail(to, `Ready for review: ${title}`, [
+      `${depositor} has submitted "${title}" for review in ${lab}.`,
+      'As a curator you can publish it as a release or return it with comments.',
+    ], { url, label: 'Review the draft' }),
+  draftReturned: (to: string, curator: string, title: string, comment: string, url: string) =>
+    mail(to, `Changes asked for: ${title}`, [
+      `${curator} has returned "${title}" with this comment:`,
+      comment,
+      'Make the changes and submit the draft again.',
+    ], { url, label: 'Open the draft' }),
+  draftPublished: (to: string, curator: string, title: string, doi: string, url: string) =>
+    mail(to, `Published: ${title}`, [
+      `${curator} has published "${title}" as ${doi}.`,
+      'The release is immutable; later changes go into a new version.',
+    ], { url, label: 'See the release' }),
   verifyEmail: (to: string, name: string, url: string) =>
     mail(to, 'Confirm your e-mail address for Cohesia', [
       `Hello ${name},`,

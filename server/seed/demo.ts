@@ -3,6 +3,7 @@ import type { Auth } from '../auth/create-auth';
 import { createUsersRepository } from '../repositories/users.repository';
 import { createLabsRepository } from '../repositories/labs.repository';
 import type { LabRole } from '../../shared/lab-roles';
+import { demoPlans } from './demo-plans';
 
 /**
  * Demo scenario (invented people, labs and places; see the README). Seeded on
@@ -99,6 +100,7 @@ export async function seedDemo({ db, auth }: { db: Db; auth: Auth }): Promise<De
       await auth.api.addMember({ body: { userId: ids.get(m.user)!, role: m.role, organizationId: org!.id } });
     }
   }
+  await demoPlans(db);
   return accounts;
 }
 

@@ -1,4 +1,5 @@
 import { createHash } from 'node:crypto';
+import zlib from 'node:zlib';
 import type { Readable } from 'node:stream';
 import {
   AbortMultipartUploadCommand,
@@ -76,6 +77,17 @@ export function createMultipartUploads(store: ObjectStore) {
         hash.update(chunk as Buffer);
       }
       return { size, sha256: hash.digest('hex') };
+    },
+
+    /** The first lines of an object (gzip or plain), read from its first 64 KiB only. */
+    async firstLines(key: string, count: number): Promise<string[]> {
+      const out = await client.send(new GetObjectCommand({ Bucket: bucket, Key: key, Range: 'bytes=0-65535' }));
+      const head = Buffer.from(await out.Body!.transformToByteArray());
+      // A gzip member cut short still inflates up to the cut with a sync flush.
+      const text = head[0] === 0x1f && head[1] === 0x8b ? zlib.gunzipSync(head, { finishFlush: zlib.constants.Z_SYNC_FLUSH }).toString('utf8') : head.toString('utf8');
+      const lines = text.replace(/^\uFEFF/, '').split(/\r?\n/);
+      // The last line may be cut by the 64 KiB limit.
+      return lines.slice(0, Math.min(count, Math.max(1, lines.length - 1)));
     },
 
     async size(key: string): Promise<number | null> {

@@ -3,6 +3,8 @@ import type { Config } from '../config';
 
 /** The S3 client for s3rver locally and any S3-compatible store in production. */
 export function createObjectStore(s3: Config['s3']) {
+  // The project is pinned to Node 20 on purpose; the SDK's notice about its future Node 22 floor is known.
+  process.env.AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED ??= 'true';
   const client = new S3Client({
     endpoint: s3.endpoint,
     region: s3.region,

@@ -3,3 +3,5 @@ export * from './profile';
 export * from './labs';
 export * from './admin';
 export * from './errors';
+export * from './depositing';
+export * from './billing';

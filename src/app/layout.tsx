@@ -48,6 +48,7 @@ export function Layout() {
               <>
                 <NavLink to={paths.adminUsers} className={navClass}>Accounts</NavLink>
                 <NavLink to={paths.adminLabs} className={navClass}>All labs</NavLink>
+                <NavLink to={paths.adminPlans} className={navClass}>Plans</NavLink>
               </>
             ) : null}
             {info.data?.mailbox ? <NavLink to={paths.mailbox} className={navClass}>Mailbox</NavLink> : null}

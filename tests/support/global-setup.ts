@@ -7,12 +7,16 @@ import { createAuth } from '../../server/auth/create-auth';
 import { seedDemo } from '../../server/seed/demo';
 import { startObjectStorage } from '../../docker-free-fakes/object-storage/server';
 import { startMailCapture } from '../../docker-free-fakes/mail-capture/server';
+import { startIdentifierRegistry } from '../../docker-free-fakes/identifier-registry/server';
+import { startPaymentsStandIn } from '../../docker-free-fakes/payments/server';
 
 declare module 'vitest' {
   export interface ProvidedContext {
     s3Endpoint: string;
     smtpUrl: string;
     mailCaptureUrl: string;
+    identifierRegistryUrl: string;
+    paymentsUrl: string;
     templatePath: string;
     workDir: string;
   }
@@ -26,6 +30,9 @@ export default async function setup(project: TestProject) {
   const workDir = fs.mkdtempSync(path.join(os.tmpdir(), 'cohesia-test-'));
   const storage = await startObjectStorage({ port: 0, directory: path.join(workDir, 's3'), bucket: 'cohesia' });
   const mail = await startMailCapture({ smtpPort: 0, httpPort: 0, directory: path.join(workDir, 'mail') });
+  const identifiers = await startIdentifierRegistry({ port: 0, file: path.join(workDir, 'identifiers.json'), user: 'cohesia', password: 'registry-test-password' });
+  // One payment stand-in for the run; each test app is its own account (its own secret key and webhook endpoint).
+  const payments = await startPaymentsStandIn({ port: 0, directory: path.join(workDir, 'payments'), retryDelaysMs: [200, 500, 1000] });
 
   const database = await openPglite({});
   await database.migrate();
@@ -43,10 +50,14 @@ export default async function setup(project: TestProject) {
   project.provide('s3Endpoint', storage.url);
   project.provide('smtpUrl', `smtp://127.0.0.1:${mail.smtpPort}`);
   project.provide('mailCaptureUrl', mail.httpUrl);
+  project.provide('identifierRegistryUrl', identifiers.url);
+  project.provide('paymentsUrl', payments.url);
   project.provide('templatePath', templatePath);
   project.provide('workDir', workDir);
 
   return async () => {
+    await payments.close();
+    await identifiers.close();
     await mail.close();
     await storage.close();
     fs.rmSync(workDir, { recursive: true, force: true });

@@ -38,6 +38,7 @@ export function httpClient(base: string) {
     get: (p: string) => call('GET', p),
     post: (p: string, body: unknown = {}) => call('POST', p, body),
     patch: (p: string, body: unknown) => call('PATCH', p, body),
+    put: (p: string, body: unknown) => call('PUT', p, body),
     delete: (p: string) => call('DELETE', p),
     raw: call,
     hasSession: () => [...jar.keys()].some((k) => k.includes('session_token')),

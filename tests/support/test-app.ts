@@ -3,11 +3,12 @@ import { inject } from 'vitest';
 import pino from 'pino';
 import { loadConfig } from '../../server/config';
 import { startCohesia, type ClientMode, type Running } from '../../server/runtime';
+import { createPaymentsClient } from '../../server/payments/stripe-client';
 
-export type TestApp = Running & { mail: MailboxClient };
+export type TestApp = Running & { mail: MailboxClient; payments: { url: string; secretKey: string; webhookSecret: string } };
 
 /** Starts the real app on a free port over a fresh copy of the migrated, seeded template. */
-export async function startTestApp(opts: { client?: ClientMode; env?: Record<string, string> } = {}): Promise<TestApp> {
+export async function startTestApp(opts: { client?: ClientMode; env?: Record<string, string>; workers?: boolean } = {}): Promise<TestApp> {
   const template = new Blob([fs.readFileSync(inject('templatePath'))]);
   const port = await freePort();
   const config = loadConfig({
@@ -19,12 +20,20 @@ export async function startTestApp(opts: { client?: ClientMode; env?: Record<str
     S3_ENDPOINT: inject('s3Endpoint'),
     SMTP_URL: inject('smtpUrl'),
     MAIL_CAPTURE_URL: inject('mailCaptureUrl'),
+    DOI_REGISTRY_URL: inject('identifierRegistryUrl'),
+    DOI_REGISTRY_PASSWORD: 'registry-test-password',
+    // Each app is its own account at the shared payment stand-in.
+    STRIPE_API_URL: inject('paymentsUrl'),
+    STRIPE_SECRET_KEY: `sk_test_app_${port}_${Date.now().toString(36)}`,
     BETTER_AUTH_SECRET: 'test-secret-that-is-long-enough-0123456789',
     LOG_LEVEL: 'silent',
     ...opts.env,
   });
-  const running = await startCohesia({ config, client: opts.client ?? 'none', template, log: pino({ level: 'silent' }) });
-  return { ...running, mail: mailboxClient(inject('mailCaptureUrl')) };
+  const running = await startCohesia({ config, client: opts.client ?? 'none', template, log: pino({ level: 'silent' }), workers: opts.workers });
+  // The stand-in sends this account's webhook events to this app (the provider's own endpoint API, through the SDK).
+  await createPaymentsClient(config.payments).webhookEndpoints.create({ url: `${running.url}/api/billing/webhook`, enabled_events: ['*'] });
+  const payments = { url: config.payments.apiUrl, secretKey: config.payments.secretKey, webhookSecret: config.payments.webhookSecret };
+  return { ...running, mail: mailboxClient(inject('mailCaptureUrl'), config.publicBaseUrl), payments };
 }
 
 // better-auth wants the public base URL to match the origin it sees, so the
@@ -44,12 +53,17 @@ async function freePort(): Promise<number> {
 export type CapturedMail = { id: string; to: string[]; subject: string; text: string };
 export type MailboxClient = ReturnType<typeof mailboxClient>;
 
-/** Reads the real SMTP capture over HTTP; waits for mail that is still in flight. */
-export function mailboxClient(base: string) {
+/**
+ * Reads the real SMTP capture over HTTP; waits for mail that is still in flight.
+ * Test apps share one capture, so with `appUrl` only mail linking to that app counts
+ * (every message Cohesia sends carries a link to its own address).
+ */
+export function mailboxClient(base: string, appUrl?: string) {
   return {
     async messagesTo(to: string): Promise<CapturedMail[]> {
       const res = await fetch(`${base}/messages?to=${encodeURIComponent(to)}`);
-      return (await res.json()) as CapturedMail[];
+      const all = (await res.json()) as CapturedMail[];
+      return appUrl ? all.filter((m) => m.text.includes(appUrl)) : all;
     },
     async waitFor(to: string, subject: RegExp, timeoutMs = 10_000): Promise<CapturedMail> {
       const until = Date.now() + timeoutMs;

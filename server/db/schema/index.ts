@@ -1,3 +1,5 @@
 // Every table, re-exported so drizzle-kit and the auth adapter see them all.
 export * from './auth';
 export * from './depositing';
+export * from './storage';
+export * from './billing';

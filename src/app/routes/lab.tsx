@@ -8,6 +8,8 @@ import { InviteForm } from '../../features/labs/components/invite-form';
 import { InvitationList } from '../../features/labs/components/invitation-list';
 import { RoleBadge } from '../../features/labs/components/role-badge';
 import { labRoleCan } from '../../../shared/lab-roles';
+import { LinkButton } from '../../components/button';
+import { paths } from '../paths';
 
 export function Component() {
   const { slug = '' } = useParams();
@@ -32,6 +34,14 @@ export function Component() {
           }
         >
           {l.description ? <p className="mb-8 max-w-3xl font-serif leading-relaxed">{l.description}</p> : null}
+          {l.myRole ? (
+            <p className="mb-8 flex flex-wrap gap-2">
+              <LinkButton to={paths.labDatasets(l.slug)}>Datasets and drafts</LinkButton>
+              {labRoleCan(l.myRole, { billing: ['manage'] }) ? (
+                <LinkButton variant="secondary" to={paths.labStorage(l.slug)}>Storage and billing</LinkButton>
+              ) : null}
+            </p>
+          ) : null}
           <Section title={`Members (${l.memberCount})`}>
             <LabMembers lab={l} />
           </Section>

@@ -1,0 +1,53 @@
+import type { Logger } from 'pino';
+import type { Config } from './config';
+import type { Database } from './db/client';
+import type { ObjectStore } from './storage/object-store';
+import type { Mailer } from './mail/mailer';
+import type { JobHandler, JobQueue, JobRow } from './jobs/job-queue';
+import { createDepositingRepository } from './repositories/depositing.repository';
+import { createLabsRepository } from './repositories/labs.repository';
+import { createMultipartUploads } from './storage/multipart-uploads';
+import { createDepositingService, INGEST_JOB, REGISTER_JOB } from './services/depositing.service';
+import { createIngestJob, createRegisterJob } from './services/ingest-jobs';
+import { createQuotaService } from './services/quota.service';
+import { createHttpRegistrar } from './identifiers/registration';
+import { depositingRoutes } from './routes/depositing.routes';
+
+export type DepositingDeps = { config: Config; database: Database; store: ObjectStore; log: Logger; mailer: Pick<Mailer, 'send'>; jobs: JobQueue };
+
+/** Wires datasets, drafts, uploads, ingest and release jobs. */
+export function createDepositingModule({ config, database, store, log, mailer, jobs }: DepositingDeps) {
+  const repo = createDepositingRepository(database.db);
+  const uploads = createMultipartUploads(store);
+  const quota = createQuotaService({
+    db: database.db,
+    freeTierBytes: config.payments.freeTierBytes,
+    graceDays: config.payments.graceDays,
+    publicBaseUrl: config.publicBaseUrl,
+  });
+  const service = createDepositingService({
+    repo,
+    labs: createLabsRepository(database.db),
+    uploads,
+    store,
+    quota,
+    jobs,
+    mailer,
+    log: log.child({ area: 'depositing' }),
+    doiPrefix: config.doiPrefix,
+    publicBaseUrl: config.publicBaseUrl,
+  });
+  const ingest = createIngestJob({ repo, store, uploads, quota, log: log.child({ area: 'ingest' }) });
+  const registrar = createHttpRegistrar({ baseUrl: config.identifiers.registryUrl, user: config.identifiers.user, password: config.identifiers.password });
+  const handlers: Record<string, JobHandler> = {
+    [INGEST_JOB]: ingest.handler,
+    [REGISTER_JOB]: createRegisterJob({ repo, registrar, doiPrefix: config.doiPrefix, publicBaseUrl: config.publicBaseUrl }),
+  };
+  const onFinalFailure = async (row: JobRow, e: Error) => {
+    if (row.kind === INGEST_JOB) await ingest.onFinalFailure(row, e);
+    else log.error({ jobId: row.id, kind: row.kind, err: e }, 'job gave up');
+  };
+  return { service, routes: depositingRoutes(service), handlers, onFinalFailure };
+}
+
+export type DepositingModule = ReturnType<typeof createDepositingModule>;

@@ -1,0 +1,177 @@
+import { and, asc, desc, eq, inArray, max, sql } from 'drizzle-orm';
+import type { Db } from '../db/client';
+import { dataset, draft, draftComment, draftFile, job, release, releaseFile, user, type DraftState } from '../db/schema';
+
+export type DatasetRow = typeof dataset.$inferSelect;
+export type DraftRow = typeof draft.$inferSelect;
+export type DraftFileRow = typeof draftFile.$inferSelect;
+export type ReleaseRow = typeof release.$inferSelect;
+export type ReleaseFileRow = typeof releaseFile.$inferSelect;
+
+const OPEN: DraftState[] = ['editing', 'submitted', 'returned'];
+
+/** Datasets, drafts, files and releases. Only this module writes those tables. */
+export function createDepositingRepository(db: Db) {
+  return {
+    transaction: <T>(fn: (tx: Db) => Promise<T>) => db.transaction((tx) => fn(tx as unknown as Db)),
+
+    async insertDataset(values: typeof dataset.$inferInsert, tx: Db = db) {
+      await tx.insert(dataset).values(values);
+    },
+    async insertDraft(values: typeof draft.$inferInsert, tx: Db = db) {
+      await tx.insert(draft).values(values);
+    },
+
+    async datasetsOfLab(labId: string) {
+      const rows = await db.select().from(dataset).where(eq(dataset.labId, labId)).orderBy(desc(dataset.updatedAt));
+      if (!rows.length) return [];
+      const ids = rows.map((r) => r.id);
+      const drafts = await db.select({ id: draft.id, datasetId: draft.datasetId, state: draft.state }).from(draft).where(and(inArray(draft.datasetId, ids), inArray(draft.state, OPEN)));
+      const versions = await db
+        .select({ datasetId: release.datasetId, latest: max(release.version) })
+        .from(release)
+        .where(inArray(release.datasetId, ids))
+        .groupBy(release.datasetId);
+      return rows.map((d) => ({
+        ...d,
+        openDraft: drafts.find((x) => x.datasetId === d.id) ?? null,
+        latestVersion: versions.find((v) => v.datasetId === d.id)?.latest ?? null,
+      }));
+    },
+
+    async findDataset(id: string) {
+      const [row] = await db.select().from(dataset).where(eq(dataset.id, id));
+      return row;
+    },
+    async findDatasetBySuffix(suffix: string) {
+      const [row] = await db.select().from(dataset).where(eq(dataset.suffix, suffix));
+      return row;
+    },
+
+    async findDraft(id: string) {
+      const [row] = await db
+        .select({ draft, dataset })
+        .from(draft)
+        .innerJoin(dataset, eq(draft.datasetId, dataset.id))
+        .where(eq(draft.id, id));
+      return row;
+    },
+    async openDraftOf(datasetId: string) {
+      const [row] = await db.select().from(draft).where(and(eq(draft.datasetId, datasetId), inArray(draft.state, OPEN)));
+      return row;
+    },
+    async draftsInState(labId: string, state: DraftState) {
+      return db
+        .select({ draft, dataset })
+        .from(draft)
+        .innerJoin(dataset, eq(draft.datasetId, dataset.id))
+        .where(and(eq(dataset.labId, labId), eq(draft.state, state)))
+        .orderBy(asc(draft.submittedAt));
+    },
+
+    async updateDraft(id: string, values: Partial<typeof draft.$inferInsert>, tx: Db = db) {
+      await tx.update(draft).set(values).where(eq(draft.id, id));
+    },
+    /** Moves a draft between states only if it is in one of `from`; returns whether it moved. */
+    async transitionDraft(id: string, from: DraftState[], to: DraftState, extra: Partial<typeof draft.$inferInsert> = {}, tx: Db = db) {
+      const moved = await tx
+        .update(draft)
+        .set({ state: to, ...extra })
+        .where(and(eq(draft.id, id), inArray(draft.state, from)))
+        .returning({ id: draft.id });
+      return moved.length === 1;
+    },
+    async touchDataset(id: string, values: Partial<typeof dataset.$inferInsert>, tx: Db = db) {
+      await tx.update(dataset).set(values).where(eq(dataset.id, id));
+    },
+
+    async files(draftId: string) {
+      return db.select().from(draftFile).where(eq(draftFile.draftId, draftId)).orderBy(asc(draftFile.createdAt));
+    },
+    async findFile(id: string) {
+      const [row] = await db.select().from(draftFile).where(eq(draftFile.id, id));
+      return row;
+    },
+    async insertFile(values: typeof draftFile.$inferInsert, tx: Db = db) {
+      await tx.insert(draftFile).values(values);
+    },
+    async updateFile(id: string, values: Partial<typeof draftFile.$inferInsert>) {
+      await db.update(draftFile).set(values).where(eq(draftFile.id, id));
+    },
+    async deleteFile(id: string) {
+      await db.delete(draftFile).where(eq(draftFile.id, id));
+    },
+    /** Whether any draft or release still points at an object. */
+    async objectReferenced(objectKey: string) {
+      const [a] = await db.select({ n: sql<number>`count(*)` }).from(draftFile).where(eq(draftFile.objectKey, objectKey));
+      const [b] = await db.select({ n: sql<number>`count(*)` }).from(releaseFile).where(eq(releaseFile.objectKey, objectKey));
+      return Number(a.n) + Number(b.n) > 0;
+    },
+
+    /** The newest ingest result and options recorded for each object key (used when a new version carries files over). */
+    async latestResultsFor(objectKeys: string[]) {
+      const out = new Map<string, { result: Record<string, unknown> | null; ingestOptions: Record<string, unknown> }>();
+      if (!objectKeys.length) return out;
+      const rows = await db
+        .select({ objectKey: draftFile.objectKey, result: draftFile.result, ingestOptions: draftFile.ingestOptions })
+        .from(draftFile)
+        .where(and(inArray(draftFile.objectKey, objectKeys), sql`${draftFile.result} is not null`))
+        .orderBy(desc(draftFile.updatedAt));
+      for (const r of rows) if (!out.has(r.objectKey)) out.set(r.objectKey, r);
+      return out;
+    },
+
+    async comments(draftId: string) {
+      return db
+        .select({ id: draftComment.id, kind: draftComment.kind, body: draftComment.body, createdAt: draftComment.createdAt, author: user.name })
+        .from(draftComment)
+        .innerJoin(user, eq(draftComment.authorId, user.id))
+        .where(eq(draftComment.draftId, draftId))
+        .orderBy(asc(draftComment.createdAt));
+    },
+    async addComment(values: typeof draftComment.$inferInsert, tx: Db = db) {
+      await tx.insert(draftComment).values(values);
+    },
+
+    async latestJobFor(fileId: string) {
+      const [row] = await db
+        .select({ id: job.id, state: job.state, progress: job.progress, phase: job.phase, lastError: job.lastError, attempts: job.attempts })
+        .from(job)
+        .where(sql`${job.payload}->>'fileId' = ${fileId}`)
+        .orderBy(desc(job.createdAt))
+        .limit(1);
+      return row;
+    },
+
+    async nextVersion(datasetId: string, tx: Db = db) {
+      const [row] = await tx.select({ v: max(release.version) }).from(release).where(eq(release.datasetId, datasetId));
+      return (row?.v ?? 0) + 1;
+    },
+    async insertRelease(values: typeof release.$inferInsert, files: Array<typeof releaseFile.$inferInsert>, tx: Db = db) {
+      await tx.insert(release).values(values);
+      if (files.length) await tx.insert(releaseFile).values(files);
+    },
+    async releasesOf(datasetId: string) {
+      return db.select().from(release).where(eq(release.datasetId, datasetId)).orderBy(asc(release.version));
+    },
+    async findRelease(id: string) {
+      const [row] = await db.select().from(release).where(eq(release.id, id));
+      return row;
+    },
+    async findReleaseBySuffix(suffix: string) {
+      const [row] = await db.select().from(release).where(eq(release.suffix, suffix));
+      return row;
+    },
+    async releaseFiles(releaseId: string) {
+      return db.select().from(releaseFile).where(eq(releaseFile.releaseId, releaseId)).orderBy(asc(releaseFile.fileName));
+    },
+    async withdrawRelease(id: string, values: { withdrawnAt: Date; withdrawnReason: string; withdrawnBy: string }) {
+      await db.update(release).set(values).where(eq(release.id, id));
+    },
+    async setBundleKey(id: string, bundleKey: string) {
+      await db.update(release).set({ bundleKey }).where(eq(release.id, id));
+    },
+  };
+}
+
+export type DepositingRepository = ReturnType<typeof createDepositingRepository>;

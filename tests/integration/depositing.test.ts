@@ -1,0 +1,178 @@
+import { createHash } from 'node:crypto';
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import { sql } from 'drizzle-orm';
+import { startTestApp, type TestApp } from '../support/test-app';
+import { signInDemo } from '../support/accounts';
+import { fixture, uploadFile, validMetadata, waitForFile } from '../support/depositing';
+import type { HttpClient } from '../support/http-client';
+
+const LAB = 'fenmoor-swarm-ecology';
+let app: TestApp;
+let depositor: HttpClient;
+let curator: HttpClient;
+
+beforeAll(async () => {
+  app = await startTestApp();
+  depositor = await signInDemo(app, 'mina.throssel@fenmoor.example');
+  curator = await signInDemo(app, 'rafael.quist@fenmoor.example');
+});
+afterAll(async () => app?.close());
+
+async function newDraft(title = 'Test swarm dataset', metadata: Record<string, unknown> | null = { frameRate: 100, units: 'm', dimension: 3 }) {
+  const res = await depositor.post(`/api/labs/${LAB}/datasets`, { title, summary: 'For the tests.' });
+  expect(res.status).toBe(201);
+  // The frame rate and units the engine needs come from the metadata.
+  if (metadata) await depositor.put(`/api/labs/${LAB}/drafts/${res.json.draftId}/metadata`, { metadata: { title, ...metadata } });
+  return res.json as { datasetId: string; draftId: string; suffix: string; doi: string };
+}
+
+describe('depositing: upload → ingest → metadata → review → release', () => {
+  it('runs the whole journey and publishes immutable, versioned releases', async () => {
+    const { draftId, datasetId, doi } = await newDraft();
+    expect(doi).toMatch(/^10\.99999\/cx\.[0-9A-Z]{4}-[0-9A-Z]{5}$/);
+
+    const bytes = fixture('trapped-langevin-swarm.csv.gz');
+    const fileId = await uploadFile(depositor, LAB, draftId, '../trapped swarm.csv.gz', bytes);
+    const file = await waitForFile(depositor, LAB, draftId, fileId);
+    expect(file).toMatchObject({ state: 'ready', status: 'ok', fileName: 'trapped swarm.csv.gz', sizeBytes: bytes.length });
+    expect(file.sha256).toBe(createHash('sha256').update(bytes).digest('hex'));
+    const report = (await depositor.get(`/api/labs/${LAB}/drafts/${draftId}/files/${fileId}`)).json;
+    expect(report.result.engineVersion).toBeTruthy();
+    expect(report.result.summary).toBeTruthy();
+
+    // Invalid metadata is kept (nothing typed is lost) and its problems come back with paths.
+    const bad = await depositor.put(`/api/labs/${LAB}/drafts/${draftId}/metadata`, { metadata: validMetadata({ licence: 'MY-OWN', frameRate: -1 }) });
+    expect(bad.status).toBe(200);
+    expect(bad.json.problems.map((p: { path: string }) => p.path).sort()).toEqual(['/frameRate', '/licence']);
+    const notReady = await depositor.post(`/api/labs/${LAB}/drafts/${draftId}/submit`);
+    expect(notReady.status).toBe(409);
+    expect(notReady.json.message).toMatch(/metadata/);
+
+    expect((await depositor.put(`/api/labs/${LAB}/drafts/${draftId}/metadata`, { metadata: validMetadata() })).json.problems).toEqual([]);
+    expect((await depositor.post(`/api/labs/${LAB}/drafts/${draftId}/submit`)).status).toBe(200);
+    await app.mail.waitFor('rafael.quist@fenmoor.example', /Ready for review: Trapped swarm/);
+    // A submitted draft is locked for editing.
+    expect((await depositor.put(`/api/labs/${LAB}/drafts/${draftId}/metadata`, { metadata: validMetadata() })).status).toBe(409);
+
+    // A depositor cannot publish; a curator can, once.
+    expect((await depositor.post(`/api/labs/${LAB}/drafts/${draftId}/publish`, {})).status).toBe(403);
+    const [a, b] = await Promise.all([
+      curator.post(`/api/labs/${LAB}/drafts/${draftId}/publish`, { changelog: 'First release.' }),
+      curator.post(`/api/labs/${LAB}/drafts/${draftId}/publish`, { changelog: 'First release.' }),
+    ]);
+    expect([a.status, b.status].sort()).toEqual([201, 409]);
+    const v1 = (a.status === 201 ? a : b).json;
+    expect(v1).toMatchObject({ version: 1, doi: `${doi}.v1` });
+    await app.mail.waitFor('mina.throssel@fenmoor.example', /Published: Trapped swarm/);
+
+    // The database refuses to change a published release.
+    const dbError = (p: Promise<unknown>) => p.then(() => 'no error', (e) => String(e.cause?.message ?? e.message));
+    expect(await dbError(app.database.db.execute(sql`update release set title = 'changed' where id = ${v1.releaseId}`))).toMatch(/content cannot change/);
+    expect(await dbError(app.database.db.execute(sql`delete from release where id = ${v1.releaseId}`))).toMatch(/cannot be deleted/);
+    expect(await dbError(app.database.db.execute(sql`update release_file set sha256 = 'x' where release_id = ${v1.releaseId}`))).toMatch(/cannot change/);
+
+    // The identifiers reach the registration agency (a background job).
+    await expect
+      .poll(async () => (await fetch(`${inject('identifierRegistryUrl')}/identifiers/${encodeURIComponent(v1.doi)}`)).status, { timeout: 10_000 })
+      .toBe(200);
+
+    // A new version carries the files over by reference and publishes as version 2.
+    const next = await depositor.post(`/api/labs/${LAB}/datasets/${datasetId}/versions`);
+    expect(next.status).toBe(201);
+    expect((await depositor.post(`/api/labs/${LAB}/datasets/${datasetId}/versions`)).status).toBe(409);
+    const d2 = (await depositor.get(`/api/labs/${LAB}/drafts/${next.json.draftId}`)).json;
+    expect(d2.files).toHaveLength(1);
+    expect(d2.files[0]).toMatchObject({ state: 'ready', sha256: file.sha256, carriedOver: true });
+    expect(d2.problems).toEqual([]);
+    expect((await depositor.post(`/api/labs/${LAB}/drafts/${next.json.draftId}/submit`)).status).toBe(200);
+    const v2 = await curator.post(`/api/labs/${LAB}/drafts/${next.json.draftId}/publish`, { changelog: 'Same data, checked again.' });
+    expect(v2.json).toMatchObject({ version: 2, doi: `${doi}.v2` });
+  });
+
+  it('lets a curator return a draft with a comment, mailed to the depositor', async () => {
+    const { draftId } = await newDraft('Returned dataset');
+    const fileId = await uploadFile(depositor, LAB, draftId, 'swarm.csv.gz', fixture('adaptive-gravity-swarm.csv.gz'));
+    await waitForFile(depositor, LAB, draftId, fileId);
+    await depositor.put(`/api/labs/${LAB}/drafts/${draftId}/metadata`, { metadata: validMetadata({ title: 'Returned dataset' }) });
+    expect((await depositor.post(`/api/labs/${LAB}/drafts/${draftId}/submit`)).status).toBe(200);
+    expect((await depositor.post(`/api/labs/${LAB}/drafts/${draftId}/return`, { body: 'Please add the camera model.' })).status).toBe(403);
+    expect((await curator.post(`/api/labs/${LAB}/drafts/${draftId}/return`, { body: 'Please add the camera model.' })).status).toBe(200);
+    const mail = await app.mail.waitFor('mina.throssel@fenmoor.example', /Changes asked for: Returned dataset/);
+    expect(mail.text).toContain('Please add the camera model.');
+    const draft = (await depositor.get(`/api/labs/${LAB}/drafts/${draftId}`)).json;
+    expect(draft.state).toBe('returned');
+    expect(draft.comments.map((c: { kind: string }) => c.kind)).toEqual(['submitted', 'returned']);
+  });
+
+  it('maps the columns of a header-less file and checks it again', async () => {
+    const { draftId } = await newDraft('Header-less file', null);
+    const bytes = fixture('variants/no-header.csv');
+    const fileId = await uploadFile(depositor, LAB, draftId, 'no-header.csv', bytes);
+    const first = await waitForFile(depositor, LAB, draftId, fileId);
+    const preview = (await depositor.get(`/api/labs/${LAB}/drafts/${draftId}/files/${fileId}/preview`)).json;
+    expect(preview.lines[0].split(',').length).toBeGreaterThanOrEqual(5);
+    const res = await depositor.post(`/api/labs/${LAB}/drafts/${draftId}/files/${fileId}/ingest`, {
+      hasHeader: false,
+      mapping: { track_id: 0, frame: 1, x: 2, y: 3, z: 4 },
+      units: 'm',
+      fps: 100,
+      dims: 3,
+    });
+    expect(res.status, JSON.stringify(res.json)).toBe(200);
+    const again = await waitForFile(depositor, LAB, draftId, fileId);
+    expect(again.state).toBe('ready');
+    expect(first.sha256).toBe(again.sha256);
+  });
+
+  it('keeps an invalid file with its report and never marks it ready', async () => {
+    const { draftId } = await newDraft('Broken file');
+    const fileId = await uploadFile(depositor, LAB, draftId, 'broken.csv', Buffer.from('track_id,frame,x,y,z\n1,1,0.1,0.2,abc\n1,2,0.1,0.2,0.3\n'));
+    const file = await waitForFile(depositor, LAB, draftId, fileId);
+    expect(file).toMatchObject({ state: 'invalid', status: 'invalid' });
+    expect(file.errors).toBeGreaterThan(0);
+    const report = (await depositor.get(`/api/labs/${LAB}/drafts/${draftId}/files/${fileId}`)).json;
+    expect(report.result.validation.errors[0].message).toMatch(/abc/);
+    const draft = (await depositor.get(`/api/labs/${LAB}/drafts/${draftId}`)).json;
+    expect(draft.blockers.join(' ')).toMatch(/did not pass/);
+  });
+
+  it('refuses bad uploads clearly: missing parts, duplicate names, other labs', async () => {
+    const { draftId } = await newDraft('Upload errors');
+    const start = await depositor.post(`/api/labs/${LAB}/drafts/${draftId}/uploads`, { fileName: 'a.csv', size: 20 * 1024 * 1024, mediaType: 'text/csv' });
+    expect(start.status).toBe(201);
+    expect(start.json.partCount).toBe(3);
+    const missing = await depositor.post(`/api/labs/${LAB}/drafts/${draftId}/uploads/${start.json.fileId}/complete`, { parts: [{ partNumber: 1, etag: '"x"' }] });
+    expect(missing.status).toBe(400);
+    expect(missing.json.message).toMatch(/all 3 parts/);
+    expect((await depositor.post(`/api/labs/${LAB}/drafts/${draftId}/uploads`, { fileName: 'a.csv', size: 10, mediaType: 'text/csv' })).status).toBe(409);
+    expect((await depositor.delete(`/api/labs/${LAB}/drafts/${draftId}/files/${start.json.fileId}`)).status).toBe(204);
+    const outsider = await signInDemo(app, 'jun.haverly@tidewater.example');
+    expect((await outsider.get(`/api/labs/${LAB}/drafts/${draftId}`)).status).toBe(403);
+    expect((await outsider.get(`/api/labs/tidewater-schooling/drafts/${draftId}`)).status).toBe(404);
+  });
+});
+
+describe('ingest jobs survive a crash', () => {
+  it('a job left running by a dead worker is taken over and ends with one correct result', async () => {
+    // An API-only instance: nothing runs the jobs until a worker starts.
+    const api = await startTestApp({ workers: false });
+    try {
+      const http = await signInDemo(api, 'mina.throssel@fenmoor.example');
+      const res = await http.post(`/api/labs/${LAB}/datasets`, { title: 'Crash test', summary: '' });
+      const { draftId } = res.json;
+      await http.put(`/api/labs/${LAB}/drafts/${draftId}/metadata`, { metadata: { title: 'Crash test', frameRate: 100 } });
+      const fileId = await uploadFile(http, LAB, draftId, 'swarm.csv.gz', fixture('vicsek-flock-3d.csv.gz'));
+      // The worker that claimed the job died: its heartbeat stopped a minute ago.
+      await api.database.db.execute(
+        sql`update job set state = 'running', locked_by = 'dead-worker', attempts = 1, heartbeat_at = now() - interval '60 seconds' where payload->>'fileId' = ${fileId}`,
+      );
+      await api.jobs.drain(api.depositing.handlers, api.depositing.onFinalFailure);
+      const file = await waitForFile(http, LAB, draftId, fileId, 5000);
+      expect(file).toMatchObject({ state: 'ready', status: 'ok' });
+      const jobs = await api.database.db.execute<{ state: string; attempts: number }>(sql`select state, attempts from job where payload->>'fileId' = ${fileId}`);
+      expect((jobs as unknown as { rows: Array<{ state: string; attempts: number }> }).rows).toEqual([{ state: 'done', attempts: 2 }]);
+    } finally {
+      await api.close();
+    }
+  });
+});
