@@ -97,6 +97,7 @@ export function createApp(deps: AppDeps) {
     app[r.method](r.path, authorize(r.access), (req, res) => r.handler(req, res, r.body ? r.body.parse(req.body ?? {}) : undefined));
   }
   app.use('/api', apiNotFound);
+  if (deps.depositing) app.get('/doi/*splat', deps.depositing.doiResolver);
   for (const handler of deps.client ?? []) app.use(handler);
   app.use(errorHandler);
   return app;

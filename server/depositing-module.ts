@@ -12,6 +12,8 @@ import { createIngestJob, createRegisterJob } from './services/ingest-jobs';
 import { createQuotaService } from './services/quota.service';
 import { createHttpRegistrar } from './identifiers/registration';
 import { depositingRoutes } from './routes/depositing.routes';
+import { createReleasesService } from './services/releases.service';
+import { doiResolver, releasesRoutes } from './routes/releases.routes';
 
 export type DepositingDeps = { config: Config; database: Database; store: ObjectStore; log: Logger; mailer: Pick<Mailer, 'send'>; jobs: JobQueue };
 
@@ -47,7 +49,8 @@ export function createDepositingModule({ config, database, store, log, mailer, j
     if (row.kind === INGEST_JOB) await ingest.onFinalFailure(row, e);
     else log.error({ jobId: row.id, kind: row.kind, err: e }, 'job gave up');
   };
-  return { service, routes: depositingRoutes(service), handlers, onFinalFailure };
+  const releases = createReleasesService({ repo, labs: createLabsRepository(database.db), doiPrefix: config.doiPrefix, publicBaseUrl: config.publicBaseUrl });
+  return { service, releases, routes: [...depositingRoutes(service), ...releasesRoutes(releases)], doiResolver: doiResolver(releases), handlers, onFinalFailure };
 }
 
 export type DepositingModule = ReturnType<typeof createDepositingModule>;

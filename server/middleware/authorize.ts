@@ -11,7 +11,7 @@ export type Access =
   | { kind: 'signed-in' }
   | { kind: 'admin' }
   // A lab route: `:slug` names the lab, the caller's lab role must grant `permission`.
-  | { kind: 'lab'; permission: LabPermission }
+  | { kind: 'lab'; permission: LabPermission; allowAdmin?: boolean }
   // Pages of the local fakes (mailbox), only when they run.
   | { kind: 'fakes' };
 
@@ -35,6 +35,8 @@ export const access = {
   admin: { kind: 'admin' } as Access,
   fakes: { kind: 'fakes' } as Access,
   lab: (permission: LabPermission): Access => ({ kind: 'lab', permission }),
+  // Lab members whose role grants it, or a platform administrator.
+  labOrAdmin: (permission: LabPermission): Access => ({ kind: 'lab', permission, allowAdmin: true }),
 };
 
 type Deps = { auth: Auth; labs: LabsRepository; fakes: boolean };
@@ -67,7 +69,8 @@ export function createAuthorize({ auth, labs, fakes }: Deps) {
         return next();
       }
       const lab = await labContext(String(req.params.slug), actor);
-      if (!labRoleCan(lab.role, rule.permission)) {
+      const asAdmin = rule.allowAdmin && actor.user.role === 'admin';
+      if (!asAdmin && !labRoleCan(lab.role, rule.permission)) {
         throw forbidden(lab.role ? `As ${lab.role} of ${lab.name} you cannot do this.` : `You are not a member of ${lab.name}.`);
       }
       res.locals.lab = lab;

@@ -340,6 +340,7 @@ export function createDepositingService(d: Deps) {
             sizeBytes: f.sizeBytes!,
             sha256: f.sha256!,
             summary: (f.result as ResultDoc | null)?.summary ?? null,
+            result: f.result,
           })),
           tx,
         );
@@ -383,7 +384,7 @@ export function createDepositingService(d: Deps) {
               sha256: f.sha256,
               state: f.role === 'trajectories' ? 'ready' : 'stored',
               ingestOptions: before?.ingestOptions ?? {},
-              result: before?.result ?? (f.summary ? { status: 'ok', summary: f.summary, validation: { ok: true, errors: [], warnings: [] } } : null),
+              result: before?.result ?? f.result ?? null,
             },
             tx,
           );

@@ -4,7 +4,7 @@ import { sql } from 'drizzle-orm';
 import { startTestApp, type TestApp } from '../support/test-app';
 import { signInDemo } from '../support/accounts';
 import { fixture, uploadFile, validMetadata, waitForFile } from '../support/depositing';
-import type { HttpClient } from '../support/http-client';
+import { httpClient, type HttpClient } from '../support/http-client';
 
 const LAB = 'fenmoor-swarm-ecology';
 let app: TestApp;
@@ -174,5 +174,71 @@ describe('ingest jobs survive a crash', () => {
     } finally {
       await api.close();
     }
+  });
+});
+
+describe('release landing pages, citations and identifiers', () => {
+  it('serves the landing page publicly, resolves /doi/ in any case, and cites in several formats', async () => {
+    const { draftId, suffix } = await newDraft('Citable swarm');
+    const fileId = await uploadFile(depositor, LAB, draftId, 'swarm.csv.gz', fixture('trapped-langevin-swarm.csv.gz'));
+    await waitForFile(depositor, LAB, draftId, fileId);
+    await depositor.put(`/api/labs/${LAB}/drafts/${draftId}/metadata`, {
+      metadata: validMetadata({ title: 'Citable swarm', keywords: ['midges', 'swarm'], creators: [{ name: 'Mina Throssel', orcid: '0000-0002-1825-0097' }, { name: 'Rafael Quist' }] }),
+    });
+    await depositor.post(`/api/labs/${LAB}/drafts/${draftId}/submit`);
+    const pub = (await curator.post(`/api/labs/${LAB}/drafts/${draftId}/publish`, {})).json;
+
+    const visitor = httpClient(app.url);
+    const page = await visitor.get(`/api/releases/${pub.suffix}`);
+    expect(page.status).toBe(200);
+    expect(page.json).toMatchObject({ doi: pub.doi, version: 1, licence: { id: 'CC-BY-4.0' }, accessLevel: 'open', dataset: { suffix } });
+    expect(page.json.files[0]).toMatchObject({ fileName: 'swarm.csv.gz' });
+    expect(page.json.results[0].result.series).toBeTruthy();
+    expect(page.json.citation.styles.apa).toMatch(/^Throssel, M\., & Quist, R\. \(\d{4}\)\. Citable swarm \(Version 1\) \[Data set\]/);
+
+    // schema.org Dataset: name and description are required; identifier, creator, license, version and datePublished recommended.
+    const ld = page.json.jsonLd;
+    expect(ld['@type']).toBe('Dataset');
+    for (const key of ['name', 'description', 'identifier', 'creator', 'license', 'version', 'datePublished', 'url']) expect(ld[key], key).toBeTruthy();
+    expect(ld.creator[0].identifier).toBe('https://orcid.org/0000-0002-1825-0097');
+
+    // Case-insensitive resolution (ISO 26324), for the release and the all-versions identifier.
+    const lower = await visitor.get(`/doi/${pub.doi.toLowerCase()}`);
+    expect(lower.status).toBe(302);
+    expect(lower.headers.get('location')).toBe(`/releases/${pub.suffix}`);
+    const concept = await visitor.get(`/doi/${pub.doi.replace(/\.v1$/, '')}`);
+    expect(concept.headers.get('location')).toBe(`/datasets/${suffix}`);
+    expect((await visitor.get('/api/datasets/' + suffix)).json.latest).toBe(pub.suffix);
+
+    // BibTeX and RIS parse back with citation-js; CSL-JSON is an array of items with the DOI.
+    const { Cite } = await import('@citation-js/core');
+    await import('@citation-js/plugin-bibtex');
+    await import('@citation-js/plugin-ris');
+    const bib = await visitor.get(`/api/releases/${pub.suffix}/citation/bibtex`);
+    expect(bib.headers.get('content-disposition')).toContain('.bib');
+    const fromBib = new Cite(bib.text).data[0];
+    expect(fromBib).toMatchObject({ title: 'Citable swarm', DOI: pub.doi });
+    const fromRis = new Cite((await visitor.get(`/api/releases/${pub.suffix}/citation/ris`)).text).data[0];
+    expect(fromRis.DOI).toBe(pub.doi);
+    const csl = JSON.parse((await visitor.get(`/api/releases/${pub.suffix}/citation/csl-json`)).text);
+    expect(csl[0]).toMatchObject({ type: 'dataset', DOI: pub.doi, title: 'Citable swarm' });
+
+    // CITATION.cff: Citation File Format 1.2.0 requires cff-version, message, title and authors.
+    const YAML = (await import('yaml')).default;
+    const cff = YAML.parse((await visitor.get(`/api/releases/${pub.suffix}/citation/cff`)).text);
+    expect(cff['cff-version']).toBe('1.2.0');
+    for (const key of ['message', 'title', 'authors']) expect(cff[key], key).toBeTruthy();
+    expect(cff.authors[0]).toMatchObject({ 'family-names': 'Throssel', 'given-names': 'Mina' });
+    expect(cff.doi).toBe(pub.doi);
+
+    // Withdrawal: a tombstone keeps the citation, hides files and statistics. A curator may not; the lead may.
+    expect((await curator.post(`/api/labs/${LAB}/releases/${pub.suffix}/withdraw`, { reason: 'Calibration error found in camera 2.' })).status).toBe(403);
+    const lead = await signInDemo(app, 'ilse.marten@fenmoor.example');
+    expect((await lead.post(`/api/labs/${LAB}/releases/${pub.suffix}/withdraw`, { reason: 'Calibration error found in camera 2.' })).status).toBe(200);
+    const tomb = (await visitor.get(`/api/releases/${pub.suffix}`)).json;
+    expect(tomb.withdrawn.reason).toBe('Calibration error found in camera 2.');
+    expect(tomb.files).toEqual([]);
+    expect(tomb.citation.styles.apa).toContain(pub.doi);
+    expect((await lead.post(`/api/labs/${LAB}/releases/${pub.suffix}/withdraw`, { reason: 'Calibration error found in camera 2.' })).status).toBe(409);
   });
 });

@@ -175,6 +175,8 @@ export const releaseFile = pgTable(
     sizeBytes: bigint({ mode: 'number' }).notNull(),
     sha256: text().notNull(),
     summary: jsonb().$type<Record<string, unknown>>(),
+    // The whole ingest result (plots, quick look) frozen with the release.
+    result: jsonb().$type<Record<string, unknown>>(),
   },
   (t) => [index('release_file_release_idx').on(t.releaseId)],
 );

@@ -1,0 +1,1 @@
+ALTER TABLE "release_file" ADD COLUMN "result" jsonb;

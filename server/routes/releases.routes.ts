@@ -1,0 +1,46 @@
+import { z } from 'zod';
+import type { RequestHandler } from 'express';
+import { access, type Actor } from '../middleware/authorize';
+import type { CitationFormat, ReleasesService } from '../services/releases.service';
+import { withdrawInput } from '../../shared/contracts';
+import { route } from './route';
+
+const suffix = z.string().min(4).max(60);
+const format = z.enum(['bibtex', 'ris', 'csl-json', 'cff']);
+
+export function releasesRoutes(svc: ReleasesService) {
+  return [
+    route({
+      method: 'get', path: '/api/releases/:suffix', access: access.public, summary: "A release's landing page: metadata, files, statistics, versions, citation",
+      handler: async (req, res) => res.json(await svc.landing(suffix.parse(req.params.suffix))),
+    }),
+    route({
+      method: 'get', path: '/api/releases/:suffix/citation/:format', access: access.public, summary: 'The citation as BibTeX, RIS, CSL-JSON or CITATION.cff',
+      handler: async (req, res) => {
+        const out = await svc.citation(suffix.parse(req.params.suffix), format.parse(req.params.format) as CitationFormat);
+        res.type(out.type).attachment(out.fileName).send(out.body);
+      },
+    }),
+    route({
+      method: 'get', path: '/api/datasets/:suffix', access: access.public, summary: "A dataset's versions and its newest release",
+      handler: async (req, res) => res.json(await svc.dataset(suffix.parse(req.params.suffix))),
+    }),
+    route({
+      method: 'post', path: '/api/labs/:slug/releases/:suffix/withdraw', access: access.labOrAdmin({ lab: ['update'] }),
+      summary: 'Withdraw a release (lab lead or platform admin); its page becomes a tombstone that keeps the citation', body: withdrawInput,
+      handler: async (req, res, body) => res.json(await svc.withdraw((res.locals.actor as Actor).user.id, res.locals.lab!, suffix.parse(req.params.suffix), body.reason)),
+    }),
+  ];
+}
+
+/** `/doi/<identifier>`: the portal resolves its own identifiers, in any letter case. */
+export function doiResolver(svc: ReleasesService): RequestHandler {
+  return async (req, res, next) => {
+    // Express 5 hands the wildcard over as path segments.
+    const splat = (req.params as Record<string, unknown>).splat;
+    const raw = Array.isArray(splat) ? splat.join('/') : String(splat ?? '');
+    const target = await svc.resolve(raw);
+    if (target) return res.redirect(302, target);
+    next();
+  };
+}

@@ -1,0 +1,135 @@
+import spdxLicences from 'spdx-license-list';
+import { AppError, notFound } from '../errors';
+import type { DepositingRepository, ReleaseRow } from '../repositories/depositing.repository';
+import type { LabsRepository } from '../repositories/labs.repository';
+import type { LabContext } from '../middleware/authorize';
+import { citations, datasetJsonLd, type CitableRelease } from '../releases/citation';
+import { formatDoi, parseIdentifier } from '../../shared/identifiers';
+import { paths } from '../../shared/paths';
+
+type Deps = { repo: DepositingRepository; labs: LabsRepository; doiPrefix: string; publicBaseUrl: string };
+
+type Meta = {
+  title?: string;
+  description?: string;
+  keywords?: string[];
+  creators?: CitableRelease['creators'];
+  species?: Array<{ name: string; commonName?: string }>;
+  [k: string]: unknown;
+};
+
+export type CitationFormat = 'bibtex' | 'ris' | 'csl-json' | 'cff';
+
+/** Public landing pages of releases, their citations, and identifier resolution. */
+export function createReleasesService({ repo, labs, doiPrefix, publicBaseUrl }: Deps) {
+  async function load(suffix: string) {
+    const rel = await repo.findReleaseBySuffix(suffix);
+    if (!rel) throw notFound('The release');
+    const dataset = (await repo.findDataset(rel.datasetId))!;
+    return { rel, dataset };
+  }
+
+  function citable(rel: ReleaseRow, conceptSuffix: string): CitableRelease {
+    const m = rel.metadata as Meta;
+    return {
+      doi: rel.doi,
+      conceptDoi: formatDoi(doiPrefix, conceptSuffix),
+      version: rel.version,
+      title: rel.title,
+      description: m.description ?? '',
+      publishedAt: rel.publishedAt,
+      licence: rel.licence,
+      url: `${publicBaseUrl}${paths.release(rel.suffix)}`,
+      keywords: m.keywords ?? [],
+      creators: m.creators ?? [],
+      publisher: 'Cohesia',
+    };
+  }
+
+  return {
+    async landing(suffix: string) {
+      const { rel, dataset } = await load(suffix);
+      const lab = await labs.findById(dataset.labId);
+      const versions = (await repo.releasesOf(dataset.id)).map((r) => ({
+        version: r.version,
+        suffix: r.suffix,
+        doi: r.doi,
+        publishedAt: r.publishedAt.toISOString(),
+        withdrawn: !!r.withdrawnAt,
+      }));
+      const c = citable(rel, dataset.suffix);
+      const withdrawn = rel.withdrawnAt ? { at: rel.withdrawnAt.toISOString(), reason: rel.withdrawnReason ?? '' } : null;
+      const files = withdrawn ? [] : await repo.releaseFiles(rel.id);
+      const meta = rel.metadata as Meta;
+      const licence = (spdxLicences as Record<string, { name: string; url: string }>)[rel.licence];
+      const cites = citations(c);
+      return {
+        suffix: rel.suffix,
+        doi: rel.doi,
+        version: rel.version,
+        title: rel.title,
+        publishedAt: rel.publishedAt.toISOString(),
+        licence: { id: rel.licence, name: licence?.name ?? rel.licence, url: licence?.url ?? null },
+        accessLevel: rel.accessLevel,
+        embargoUntil: rel.embargoUntil?.toISOString() ?? null,
+        changelog: rel.changelog,
+        dataset: { suffix: dataset.suffix, doi: c.conceptDoi, lab: lab ? { name: lab.name, slug: lab.slug, isDemo: lab.isDemo } : null },
+        versions,
+        latestVersion: versions.filter((v) => !v.withdrawn).at(-1)?.version ?? null,
+        // A withdrawn release keeps only what a citation needs.
+        metadata: withdrawn ? { title: meta.title, creators: meta.creators } : rel.metadata,
+        files: files.map((f) => ({ fileName: f.fileName, role: f.role, mediaType: f.mediaType, sizeBytes: f.sizeBytes, sha256: f.sha256 })),
+        results: files.filter((f) => f.result).map((f) => ({ fileName: f.fileName, result: f.result })),
+        withdrawn,
+        citation: { styles: cites.styles },
+        jsonLd: withdrawn
+          ? null
+          : datasetJsonLd({ ...c, accessLevel: rel.accessLevel, files: files.map((f) => ({ fileName: f.fileName, sizeBytes: f.sizeBytes, mediaType: f.mediaType })), species: (meta.species ?? []).map((s) => s.name), catalogUrl: publicBaseUrl }),
+      };
+    },
+
+    async citation(suffix: string, format: CitationFormat) {
+      const { rel, dataset } = await load(suffix);
+      const c = citations(citable(rel, dataset.suffix));
+      const name = rel.suffix.replace(/[^\w.-]/g, '_');
+      switch (format) {
+        case 'bibtex':
+          return { body: c.bibtex, type: 'application/x-bibtex; charset=utf-8', fileName: `${name}.bib` };
+        case 'ris':
+          return { body: c.ris, type: 'application/x-research-info-systems; charset=utf-8', fileName: `${name}.ris` };
+        case 'csl-json':
+          return { body: c.cslJson, type: 'application/vnd.citationstyles.csl+json; charset=utf-8', fileName: `${name}.csl.json` };
+        case 'cff':
+          return { body: c.cff, type: 'application/x-yaml; charset=utf-8', fileName: 'CITATION.cff' };
+      }
+    },
+
+    /** A dataset's all-versions view: its releases and the newest one not withdrawn. */
+    async dataset(suffix: string) {
+      const dataset = await repo.findDatasetBySuffix(suffix);
+      if (!dataset) throw notFound('The dataset');
+      const versions = await repo.releasesOf(dataset.id);
+      if (!versions.length) throw notFound('A release of this dataset');
+      const latest = versions.filter((v) => !v.withdrawnAt).at(-1) ?? versions.at(-1)!;
+      return { suffix: dataset.suffix, doi: formatDoi(doiPrefix, dataset.suffix), latest: latest.suffix, versions: versions.map((v) => ({ version: v.version, suffix: v.suffix })) };
+    },
+
+    /** Where `/doi/<identifier>` leads: a release or a dataset page of this portal, or null. */
+    async resolve(identifier: string): Promise<string | null> {
+      const id = parseIdentifier(identifier);
+      if (!id || id.prefix !== doiPrefix) return null;
+      if (id.version !== null) return (await repo.findReleaseBySuffix(id.suffix)) ? paths.release(id.suffix) : null;
+      return (await repo.findDatasetBySuffix(id.datasetSuffix)) ? paths.datasetLanding(id.datasetSuffix) : null;
+    },
+
+    async withdraw(actorId: string, lab: LabContext, suffix: string, reason: string) {
+      const { rel, dataset } = await load(suffix);
+      if (dataset.labId !== lab.id) throw notFound('The release');
+      if (rel.withdrawnAt) throw new AppError('already_withdrawn', 'This release is already withdrawn.', 409);
+      await repo.withdrawRelease(rel.id, { withdrawnAt: new Date(), withdrawnReason: reason, withdrawnBy: actorId });
+      return { withdrawn: true };
+    },
+  };
+}
+
+export type ReleasesService = ReturnType<typeof createReleasesService>;
