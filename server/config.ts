@@ -42,7 +42,8 @@ const envSchema = z.object({
   DOI_PREFIX: z.string().regex(/^10\.\d{4,9}$/, 'must look like 10.NNNN (ISO 26324 prefix)').default('10.99999'),
   BETTER_AUTH_SECRET: z.string().min(32, 'must be at least 32 characters').optional(),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
-  DEMO_SEED: bool.default(true),
+  DEMO_SEED: bool.optional(),
+  DEMO_RELEASES: bool.default(true),
 });
 
 export type Config = {
@@ -61,6 +62,8 @@ export type Config = {
   authSecret: string;
   logLevel: string;
   demoSeed: boolean;
+  // Publish the synthetic demo releases too (off in tests, which make their own).
+  demoReleases: boolean;
 };
 
 export class ConfigError extends Error {}
@@ -115,6 +118,8 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     identifiers: { registryUrl: e.DOI_REGISTRY_URL, user: e.DOI_REGISTRY_USER, password: e.DOI_REGISTRY_PASSWORD },
     authSecret: e.BETTER_AUTH_SECRET ?? EMBEDDED_AUTH_SECRET,
     logLevel: e.LOG_LEVEL,
-    demoSeed: e.DEMO_SEED,
+    // Demo data only where nobody asked otherwise and it is not production.
+    demoSeed: e.DEMO_SEED ?? !production,
+    demoReleases: e.DEMO_RELEASES,
   };
 }

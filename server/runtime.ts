@@ -15,6 +15,7 @@ import type { Route } from './routes/route';
 import { createJobQueue, type JobQueue } from './jobs/job-queue';
 import { createDepositingModule, type DepositingModule } from './depositing-module';
 import { seedDemo, type DemoAccount } from './seed/demo';
+import { seedDemoReleases } from './seed/demo-releases';
 import { startFakes, type Fakes } from '../docker-free-fakes';
 
 export type ClientMode = 'dist' | 'vite' | 'none';
@@ -101,6 +102,7 @@ export async function startCohesia(opts: StartOptions): Promise<Running> {
 
     const demoAccounts = config.demoSeed ? await seedDemo({ db: database.db, auth }) : null;
 
+    if (config.demoSeed && config.demoReleases) await seedDemoReleases({ config, database, store, log });
     const jobs = createJobQueue({ db: database.db, log: log.child({ area: 'jobs' }) });
     const depositing = createDepositingModule({ config, database, store, log, mailer, jobs });
     if (opts.workers !== false) {

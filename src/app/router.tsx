@@ -25,6 +25,8 @@ const router = createBrowserRouter([
       { path: '/admin/users', lazy: () => import('./routes/admin-users') },
       { path: '/admin/labs', lazy: () => import('./routes/admin-labs') },
       { path: '/admin/plans', lazy: () => import('./routes/admin-plans') },
+      { path: '/releases/:suffix', lazy: () => import('./routes/release') },
+      { path: '/datasets/:suffix', lazy: () => import('./routes/dataset-landing') },
       { path: '/dev/mailbox', lazy: () => import('./routes/mailbox') },
       { path: '*', lazy: () => import('./routes/not-found') },
     ],

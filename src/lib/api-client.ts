@@ -48,8 +48,21 @@ async function request<T>(method: string, path: string, body?: unknown): Promise
   return data as T;
 }
 
+/** A plain-text answer (citation files and the like). */
+async function requestText(path: string): Promise<string> {
+  let res: Response;
+  try {
+    res = await fetch(`${env.VITE_API_BASE}${path}`, { credentials: 'include' });
+  } catch {
+    throw new ApiRequestError(0, 'Cohesia cannot be reached. Check your connection and try again.', 'network');
+  }
+  if (!res.ok) throw new ApiRequestError(res.status, `The server answered ${res.status}.`, 'http_error');
+  return res.text();
+}
+
 /** The one transport for our API; components never call fetch themselves. */
 export const api = {
+  text: requestText,
   get: <T>(path: string) => request<T>('GET', path),
   post: <T>(path: string, body?: unknown) => request<T>('POST', path, body ?? {}),
   patch: <T>(path: string, body: unknown) => request<T>('PATCH', path, body),

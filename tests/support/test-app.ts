@@ -27,6 +27,7 @@ export async function startTestApp(opts: { client?: ClientMode; env?: Record<str
     STRIPE_SECRET_KEY: `sk_test_app_${port}_${Date.now().toString(36)}`,
     BETTER_AUTH_SECRET: 'test-secret-that-is-long-enough-0123456789',
     LOG_LEVEL: 'silent',
+    DEMO_RELEASES: 'false',
     ...opts.env,
   });
   const running = await startCohesia({ config, client: opts.client ?? 'none', template, log: pino({ level: 'silent' }), workers: opts.workers });

@@ -23,7 +23,7 @@ export function ValidationReport({ result }: { result: Record<string, any> }) {
           <ul className="flex flex-col gap-2" data-testid="issues">
             {[...errors, ...warnings].map((i, n) => (
               <li key={n} className={`rounded border px-3 py-2 text-sm ${i.severity === 'error' ? 'border-ember bg-[#fbeee5]' : 'border-mist bg-white'}`}>
-                <div className="flex flex-wrap items-center gap-2">
+                <div className="flex items-start gap-2">
                   <span aria-hidden>{i.severity === 'error' ? '✕' : '!'}</span>
                   <span className="font-medium">{i.message}</span>
                 </div>
