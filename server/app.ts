@@ -22,6 +22,7 @@ import { adminRoutes } from './routes/admin.routes';
 import { systemRoutes } from './routes/system.routes';
 import type { Route } from './routes/route';
 import { buildOpenApi } from './openapi';
+import { METADATA_SCHEMA_VERSION, metadataSchema } from '../shared/metadata/validate-metadata';
 import type { Mailer } from './mail/mailer';
 import type { DepositingModule } from './depositing-module';
 import { billingModule, billingRoutes, billingWebhookHandler, WEBHOOK_PATH } from './routes/billing.routes';
@@ -96,6 +97,11 @@ export function createApp(deps: AppDeps) {
   for (const r of routes) {
     app[r.method](r.path, authorize(r.access), (req, res) => r.handler(req, res, r.body ? r.body.parse(req.body ?? {}) : undefined));
   }
+  // The metadata contract, published at a stable, versioned address.
+  app.get('/schemas/dataset-metadata/:version.json', (req, res, next) => {
+    if (req.params.version !== METADATA_SCHEMA_VERSION) return next();
+    res.type('application/schema+json').json({ ...metadataSchema, $id: `${config.publicBaseUrl}/schemas/dataset-metadata/${METADATA_SCHEMA_VERSION}.json` });
+  });
   app.use('/api', apiNotFound);
   if (deps.depositing) app.get('/doi/*splat', deps.depositing.doiResolver);
   for (const handler of deps.client ?? []) app.use(handler);

@@ -35,6 +35,10 @@ export function depositingRoutes(svc: DepositingService) {
       handler: async (_req, res, body) => res.status(201).json(await svc.createDataset(actorOf(res), res.locals.lab!, body)),
     }),
     route({
+      method: 'get', path: '/api/labs/:slug/review-queue', access: access.lab({ release: ['review'] }), summary: 'Drafts submitted for review, oldest first',
+      handler: async (_req, res) => res.json(await svc.reviewQueue(res.locals.lab!)),
+    }),
+    route({
       method: 'post', path: '/api/labs/:slug/datasets/:id/versions', access: access.lab({ dataset: ['create'] }), summary: 'Start a new version: a draft from the latest release',
       status: 201,
       handler: async (req, res) => res.status(201).json(await svc.newVersion(actorOf(res), res.locals.lab!, id.parse(req.params.id))),

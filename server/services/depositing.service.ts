@@ -117,6 +117,19 @@ export function createDepositingService(d: Deps) {
       }));
     },
 
+    /** Drafts waiting for a curator of the lab, oldest first. */
+    async reviewQueue(lab: LabContext) {
+      const rows = await repo.draftsInState(lab.id, 'submitted');
+      return rows.map(({ draft, dataset }) => ({
+        draftId: draft.id,
+        datasetId: dataset.id,
+        title: dataset.title,
+        doi: doiOf(dataset.suffix),
+        submittedAt: draft.submittedAt?.toISOString() ?? null,
+        newVersion: !!draft.baseReleaseId,
+      }));
+    },
+
     async createDataset(actor: Actor, lab: LabContext, input: Required<CreateDatasetInput>) {
       const id = randomUUID();
       const draftId = randomUUID();

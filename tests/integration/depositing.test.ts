@@ -242,3 +242,36 @@ describe('release landing pages, citations and identifiers', () => {
     expect((await lead.post(`/api/labs/${LAB}/releases/${pub.suffix}/withdraw`, { reason: 'Calibration error found in camera 2.' })).status).toBe(409);
   });
 });
+
+describe('review queue, schema address and quota at the upload step', () => {
+  it('lists submitted drafts for curators only', async () => {
+    const { draftId } = await newDraft('Queued dataset');
+    const fileId = await uploadFile(depositor, LAB, draftId, 'q.csv.gz', fixture('trapped-langevin-swarm.csv.gz'));
+    await waitForFile(depositor, LAB, draftId, fileId);
+    await depositor.put(`/api/labs/${LAB}/drafts/${draftId}/metadata`, { metadata: validMetadata({ title: 'Queued dataset' }) });
+    await depositor.post(`/api/labs/${LAB}/drafts/${draftId}/submit`);
+    expect((await depositor.get(`/api/labs/${LAB}/review-queue`)).status).toBe(403);
+    const queue = (await curator.get(`/api/labs/${LAB}/review-queue`)).json;
+    expect(queue.find((q: { draftId: string }) => q.draftId === draftId)).toMatchObject({ title: 'Queued dataset', newVersion: false });
+  });
+
+  it('publishes the metadata JSON Schema at a stable, versioned address', async () => {
+    const res = await fetch(`${app.url}/schemas/dataset-metadata/1.0.0.json`);
+    expect(res.status).toBe(200);
+    expect(res.headers.get('content-type')).toContain('application/schema+json');
+    const schema = await res.json();
+    expect(schema.$schema).toBe('https://json-schema.org/draft/2020-12/schema');
+    expect(schema.$id).toBe(`${app.url}/schemas/dataset-metadata/1.0.0.json`);
+    expect((await fetch(`${app.url}/schemas/dataset-metadata/9.9.9.json`, { headers: { accept: 'application/json' } })).status).not.toBe(200);
+  });
+
+  it('refuses an upload beyond the quota before any byte is stored, saying how much is left', async () => {
+    const { draftId } = await newDraft('Too big');
+    const res = await depositor.post(`/api/labs/${LAB}/drafts/${draftId}/uploads`, { fileName: 'huge.csv.gz', size: 50 * 1000 ** 3, mediaType: 'application/gzip' });
+    expect(res.status).toBe(413);
+    expect(res.json.code).toBe('over_quota');
+    expect(res.json.message).toMatch(/only .* is left/);
+    expect(res.json.message).toContain('/labs/fenmoor-swarm-ecology/storage');
+    expect((await depositor.get(`/api/labs/${LAB}/drafts/${draftId}`)).json.files).toEqual([]);
+  });
+});

@@ -37,6 +37,9 @@ export function Component() {
           {l.myRole ? (
             <p className="mb-8 flex flex-wrap gap-2">
               <LinkButton to={paths.labDatasets(l.slug)}>Datasets and drafts</LinkButton>
+              {labRoleCan(l.myRole, { release: ['review'] }) ? (
+                <LinkButton variant="secondary" to={paths.reviewQueue(l.slug)}>Review queue</LinkButton>
+              ) : null}
               {labRoleCan(l.myRole, { billing: ['manage'] }) ? (
                 <LinkButton variant="secondary" to={paths.labStorage(l.slug)}>Storage and billing</LinkButton>
               ) : null}
