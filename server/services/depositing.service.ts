@@ -38,7 +38,12 @@ const EDITABLE: DraftRow['state'][] = ['editing', 'returned'];
 
 const objectKeyFor = (labId: string, datasetId: string, fileId: string) => `labs/${labId}/datasets/${datasetId}/files/${fileId}/${randomUUID()}`;
 
-type ResultDoc = { status?: 'ok' | 'invalid'; validation?: { errors?: unknown[]; warnings?: unknown[] }; summary?: Record<string, unknown> | null };
+type ResultDoc = {
+  status?: 'ok' | 'invalid';
+  validation?: { errors?: unknown[]; warnings?: unknown[] };
+  summary?: (Record<string, unknown> & { durationS?: number | null }) | null;
+  parameters?: { fps?: number | null; dims?: number | null };
+};
 
 /** Datasets, drafts, uploads and the review that ends in a release. */
 export function createDepositingService(d: Deps) {
@@ -83,6 +88,7 @@ export function createDepositingService(d: Deps) {
       errors: result?.validation?.errors?.length ?? 0,
       warnings: result?.validation?.warnings?.length ?? 0,
       summary: result?.summary ?? null,
+      measured: result?.status === 'ok' ? { fps: result.parameters?.fps ?? null, dims: result.parameters?.dims ?? null, durationS: result.summary?.durationS ?? null } : null,
       carriedOver: !!draft.baseReleaseId && f.uploadId === null && f.reservationId === null,
     };
   }

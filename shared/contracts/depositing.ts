@@ -75,6 +75,8 @@ export type DraftFileView = {
   errors: number;
   warnings: number;
   summary: Record<string, unknown> | null;
+  // What the engine found: frame rate, dimension and duration, for checking the metadata.
+  measured: { fps: number | null; dims: number | null; durationS: number | null } | null;
   carriedOver: boolean;
 };
 

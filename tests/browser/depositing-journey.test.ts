@@ -78,7 +78,8 @@ describe('browser: deposit a dataset, publish it, cite it', () => {
     await form.getByLabel('Scientific name').fill('Chironomus riparius');
     await form.getByLabel('Group type').selectOption('swarm');
     await form.getByLabel('Setting').selectOption('laboratory');
-    await form.getByRole('button', { name: /Use \d+ from the files/ }).click();
+    // Measured by the engine, pre-filled.
+    await expect.poll(() => form.getByLabel('Number of individuals').inputValue()).toMatch(/^\d+$/);
     await form.getByLabel('Dimension').selectOption('3');
     await form.getByLabel('Length unit of positions').selectOption('m');
     await form.getByLabel('Frame rate (frames/s)').fill('100');
@@ -120,5 +121,32 @@ describe('browser: deposit a dataset, publish it, cite it', () => {
     await vp.goto(`${app.url}/doi/${doi.toLowerCase()}`);
     await vp.waitForURL(`**${releasePath}`);
     await visitor.close();
+  });
+
+  it('keeps typed metadata when saving fails, and saves it once the server answers again', async () => {
+    const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    const page = await context.newPage();
+    await signIn(page, 'mina.throssel@fenmoor.example');
+    await page.goto(`${app.url}/labs/fenmoor-swarm-ecology/datasets/new`);
+    await page.getByLabel('Title').fill('Autosave test');
+    await page.getByRole('button', { name: /Create dataset/ }).click();
+    await page.waitForURL('**/drafts/**');
+    const form = page.getByRole('form', { name: 'Dataset metadata' });
+
+    // The network drops every save.
+    await page.route('**/metadata', (route) => route.abort('connectionfailed'));
+    await form.getByLabel('Description').fill('Typed while the connection was down; this text must survive.');
+    await page.getByText(/Not saved yet/).waitFor({ timeout: 10_000 });
+    await snap(page, 'dep-08-save-failed');
+
+    // Reload: the text comes back from this browser, and is saved now that the server answers.
+    await page.unroute('**/metadata');
+    await page.reload();
+    await expect.poll(() => form.getByLabel('Description').inputValue()).toBe('Typed while the connection was down; this text must survive.');
+    await page.getByText(/All changes saved at/).waitFor({ timeout: 10_000 });
+    const draftId = new URL(page.url()).pathname.split('/').pop()!;
+    const saved = await page.evaluate(async (id) => (await fetch(`/api/labs/fenmoor-swarm-ecology/drafts/${id}`)).json(), draftId);
+    expect(saved.metadata.description).toBe('Typed while the connection was down; this text must survive.');
+    await context.close();
   });
 });

@@ -138,8 +138,12 @@ export function measuredFromFiles(draft: DraftView) {
   const ready = draft.files.filter((f) => f.state === 'ready' && f.summary);
   if (!ready.length) return null;
   const sums = ready.map((f) => f.summary as { tracks?: number; individualsPerFrame?: { max?: number } });
+  const one = <T,>(values: T[]) => (new Set(values).size === 1 ? values[0] : null);
   return {
     numberOfIndividuals: Math.max(...sums.map((x) => x.individualsPerFrame?.max ?? x.tracks ?? 0)),
+    // Only when every file agrees.
+    frameRate: one(ready.map((f) => f.measured?.fps ?? null)),
+    dimension: one(ready.map((f) => f.measured?.dims ?? null)),
   };
 }
 
@@ -226,6 +230,16 @@ export function MetadataForm({ slug, draft, editable, showAllProblems }: { slug:
 
   const measured = measuredFromFiles(draft);
   const individuals = watch('numberOfIndividuals');
+  // Pre-fill what the engine measured where the depositor has not said anything yet.
+  const measuredKey = JSON.stringify(measured);
+  useEffect(() => {
+    if (!editable || !measured) return;
+    const fill = { numberOfIndividuals: measured.numberOfIndividuals || null, frameRate: measured.frameRate, dimension: measured.dimension };
+    for (const [name, value] of Object.entries(fill) as Array<['numberOfIndividuals' | 'frameRate' | 'dimension', number | null]>) {
+      if (value && form.getValues(name) === '') form.setValue(name, String(value), { shouldDirty: true });
+    }
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [measuredKey, editable]);
   const disagrees = measured && individuals !== '' && Number(individuals) !== measured.numberOfIndividuals;
 
   return (
@@ -279,11 +293,6 @@ export function MetadataForm({ slug, draft, editable, showAllProblems }: { slug:
           <div className="flex flex-col gap-1">
             {f('numberOfIndividuals', 'Number of individuals', { inputMode: 'numeric' })}
             {disagrees ? <Badge tone="ember" icon="≠">The files show {measured!.numberOfIndividuals}</Badge> : null}
-            {measured && editable && individuals === '' ? (
-              <Button type="button" variant="quiet" onClick={() => form.setValue('numberOfIndividuals', String(measured.numberOfIndividuals), { shouldDirty: true, shouldTouch: true })}>
-                Use {measured.numberOfIndividuals} from the files
-              </Button>
-            ) : null}
           </div>
         </div>
         <div className="grid gap-3 sm:grid-cols-3">
@@ -297,10 +306,20 @@ export function MetadataForm({ slug, draft, editable, showAllProblems }: { slug:
 
       <Fieldset legend="Recording and tracking">
         <div className="grid gap-3 sm:grid-cols-3">
-          <Select register={register} name="dimension" label="Dimension" error={err('dimension')} disabled={!editable} options={['2', '3']} labels={{ '2': '2D', '3': '3D' }} />
+          <div className="flex flex-col gap-1">
+            <Select register={register} name="dimension" label="Dimension" error={err('dimension')} disabled={!editable} options={['2', '3']} labels={{ '2': '2D', '3': '3D' }} />
+            {measured?.dimension && watch('dimension') !== '' && Number(watch('dimension')) !== measured.dimension ? (
+              <Badge tone="ember" icon="≠">The files are {measured.dimension}D</Badge>
+            ) : null}
+          </div>
           <Select register={register} name="units" label="Length unit of positions" error={err('units')} disabled={!editable} options={['m', 'cm', 'mm', 'px']} />
           {watch('units') === 'px' ? f('pixelSize', 'Size of one pixel (m)', { inputMode: 'decimal' }) : null}
-          {f('frameRate', 'Frame rate (frames/s)', { inputMode: 'decimal' })}
+          <div className="flex flex-col gap-1">
+            {f('frameRate', 'Frame rate (frames/s)', { inputMode: 'decimal' })}
+            {measured?.frameRate && watch('frameRate') !== '' && Number(watch('frameRate')) !== measured.frameRate ? (
+              <Badge tone="ember" icon="≠">The files were read at {measured.frameRate} frames/s</Badge>
+            ) : null}
+          </div>
           <Select register={register} name="gravityAxis" label="Axis pointing up" error={err('gravityAxis')} disabled={!editable} options={['x', 'y', 'z', '-x', '-y', '-z', 'none']} />
           {f('cameraCount', 'Number of cameras', { inputMode: 'numeric' })}
           {f('cameraModel', 'Camera model')}
