@@ -1,0 +1,90 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Browser } from 'playwright-core';
+import { inject } from 'vitest';
+import { startTestApp, type TestApp } from '../support/test-app';
+import { launchBrowser, snap } from '../support/browser';
+
+let app: TestApp;
+let browser: Browser;
+
+beforeAll(async () => {
+  app = await startTestApp({ client: 'dist' });
+  browser = await launchBrowser();
+});
+afterAll(async () => {
+  await browser?.close();
+  await app?.close();
+});
+
+describe('browser: upload controls', () => {
+  it('retries a failed part by itself, pauses and resumes, and cancels', async () => {
+    const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    const page = await context.newPage();
+    await page.goto(`${app.url}/sign-in`);
+    await page.getByLabel('E-mail address').fill('jun.haverly@tidewater.example');
+    await page.getByLabel('Password').fill('demo-swarm-2026');
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await page.waitForURL('**/labs');
+    await page.goto(`${app.url}/labs/tidewater-schooling/datasets/new`);
+    await page.getByLabel('Title').fill('Upload controls test');
+    await page.getByRole('button', { name: /Create dataset/ }).click();
+    await page.waitForURL('**/drafts/**');
+    await page.getByRole('combobox').first().selectOption('supplementary');
+
+    // Part uploads go straight to the object store: slow them down, and fail the first try of part 2.
+    const store = new URL(inject('s3Endpoint')).host;
+    let failedOnce = false;
+    const partTries: number[] = [];
+    await page.route(`http://${store}/**`, async (route) => {
+      const url = new URL(route.request().url());
+      const part = Number(url.searchParams.get('partNumber'));
+      if (route.request().method() === 'PUT' && part) {
+        partTries.push(part);
+        await new Promise((r) => setTimeout(r, 700));
+        if (part === 2 && !failedOnce) {
+          failedOnce = true;
+          return route.fulfill({ status: 500, body: 'simulated failure' });
+        }
+      }
+      return route.continue();
+    });
+
+    const drop = async (name: string, megabytes: number) => {
+      const dt = await page.evaluateHandle(
+        ([n, mb]) => {
+          const d = new DataTransfer();
+          d.items.add(new File([new Uint8Array((mb as number) * 1024 * 1024).fill(7)], n as string, { type: 'application/octet-stream' }));
+          return d;
+        },
+        [name, megabytes],
+      );
+      await page.getByTestId('drop-zone').dispatchEvent('drop', { dataTransfer: dt });
+    };
+
+    await drop('camera-raw.bin', 30);
+    const row = page.getByTestId('upload-row').filter({ hasText: 'camera-raw.bin' });
+    await row.waitFor();
+    await row.getByRole('button', { name: 'Pause' }).click();
+    await row.getByText('Paused').waitFor();
+    await snap(page, 'upload-01-paused');
+    const triesWhilePaused = partTries.length;
+    await page.waitForTimeout(2000);
+    expect(partTries.length - triesWhilePaused).toBeLessThanOrEqual(4); // parts already in flight may finish
+    await row.getByRole('button', { name: 'Resume' }).click();
+    await page.getByTestId('draft-file').filter({ hasText: 'camera-raw.bin' }).getByText('Stored').waitFor({ timeout: 60_000 });
+    expect(failedOnce).toBe(true);
+    expect(partTries.filter((p) => p === 2).length).toBeGreaterThanOrEqual(2); // the failed part was sent again
+
+    // Cancel: the upload disappears and nothing is left in the draft.
+    await drop('cancel-me.bin', 30);
+    const cancelRow = page.getByTestId('upload-row').filter({ hasText: 'cancel-me.bin' });
+    await cancelRow.getByRole('button', { name: 'Cancel' }).click();
+    await cancelRow.waitFor({ state: 'detached' });
+    await page.waitForTimeout(1000);
+    const draftId = new URL(page.url()).pathname.split('/').pop()!;
+    const draft = await page.evaluate(async (id) => (await fetch(`/api/labs/tidewater-schooling/drafts/${id}`)).json(), draftId);
+    expect(draft.files.map((f: { fileName: string }) => f.fileName)).toEqual(['camera-raw.bin']);
+    await snap(page, 'upload-02-done');
+    await context.close();
+  });
+});
