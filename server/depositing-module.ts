@@ -14,6 +14,7 @@ import { createHttpRegistrar } from './identifiers/registration';
 import { depositingRoutes } from './routes/depositing.routes';
 import { createReleasesService } from './services/releases.service';
 import { doiResolver, releasesRoutes } from './routes/releases.routes';
+import { BUNDLE_JOB, createDownloadsService } from './services/downloads.service';
 
 export type DepositingDeps = { config: Config; database: Database; store: ObjectStore; log: Logger; mailer: Pick<Mailer, 'send'>; jobs: JobQueue };
 
@@ -41,7 +42,17 @@ export function createDepositingModule({ config, database, store, log, mailer, j
   });
   const ingest = createIngestJob({ repo, store, uploads, quota, log: log.child({ area: 'ingest' }) });
   const registrar = createHttpRegistrar({ baseUrl: config.identifiers.registryUrl, user: config.identifiers.user, password: config.identifiers.password });
+  const downloads = createDownloadsService({
+    repo,
+    labs: createLabsRepository(database.db),
+    uploads,
+    store,
+    doiPrefix: config.doiPrefix,
+    publicBaseUrl: config.publicBaseUrl,
+    log: log.child({ area: 'downloads' }),
+  });
   const handlers: Record<string, JobHandler> = {
+    [BUNDLE_JOB]: downloads.bundleJob,
     [INGEST_JOB]: ingest.handler,
     [REGISTER_JOB]: createRegisterJob({ repo, registrar, doiPrefix: config.doiPrefix, publicBaseUrl: config.publicBaseUrl }),
   };
@@ -50,7 +61,7 @@ export function createDepositingModule({ config, database, store, log, mailer, j
     else log.error({ jobId: row.id, kind: row.kind, err: e }, 'job gave up');
   };
   const releases = createReleasesService({ repo, labs: createLabsRepository(database.db), doiPrefix: config.doiPrefix, publicBaseUrl: config.publicBaseUrl });
-  return { service, releases, routes: [...depositingRoutes(service), ...releasesRoutes(releases)], doiResolver: doiResolver(releases), handlers, onFinalFailure };
+  return { service, releases, downloads, routes: [...depositingRoutes(service), ...releasesRoutes(releases, downloads)], doiResolver: doiResolver(releases), handlers, onFinalFailure };
 }
 
 export type DepositingModule = ReturnType<typeof createDepositingModule>;

@@ -1,6 +1,6 @@
 import { and, asc, desc, eq, inArray, max, sql } from 'drizzle-orm';
 import type { Db } from '../db/client';
-import { dataset, draft, draftComment, draftFile, job, release, releaseFile, user, type DraftState } from '../db/schema';
+import { dataset, downloadEvent, draft, draftComment, draftFile, job, release, releaseFile, user, type DraftState } from '../db/schema';
 
 export type DatasetRow = typeof dataset.$inferSelect;
 export type DraftRow = typeof draft.$inferSelect;
@@ -167,6 +167,14 @@ export function createDepositingRepository(db: Db) {
     },
     async withdrawRelease(id: string, values: { withdrawnAt: Date; withdrawnReason: string; withdrawnBy: string }) {
       await db.update(release).set(values).where(eq(release.id, id));
+    },
+    async recordDownload(values: typeof downloadEvent.$inferInsert) {
+      await db.insert(downloadEvent).values(values);
+    },
+    async downloadCount(releaseIds: string[]) {
+      if (!releaseIds.length) return 0;
+      const [row] = await db.select({ n: sql<number>`count(*)` }).from(downloadEvent).where(inArray(downloadEvent.releaseId, releaseIds));
+      return Number(row?.n ?? 0);
     },
     async setBundleKey(id: string, bundleKey: string) {
       await db.update(release).set({ bundleKey }).where(eq(release.id, id));

@@ -1,18 +1,32 @@
 import { z } from 'zod';
-import type { RequestHandler } from 'express';
+import type { RequestHandler, Response } from 'express';
 import { access, type Actor } from '../middleware/authorize';
 import type { CitationFormat, ReleasesService } from '../services/releases.service';
+import type { DownloadsService } from '../services/downloads.service';
 import { withdrawInput } from '../../shared/contracts';
 import { route } from './route';
 
 const suffix = z.string().min(4).max(60);
 const format = z.enum(['bibtex', 'ris', 'csl-json', 'cff']);
 
-export function releasesRoutes(svc: ReleasesService) {
+export function releasesRoutes(svc: ReleasesService, downloads: DownloadsService) {
+  const viewer = (res: Response) => ({ userId: (res.locals.actor as Actor | undefined)?.user.id ?? null });
   return [
     route({
       method: 'get', path: '/api/releases/:suffix', access: access.public, summary: "A release's landing page: metadata, files, statistics, versions, citation",
       handler: async (req, res) => res.json(await svc.landing(suffix.parse(req.params.suffix))),
+    }),
+    route({
+      method: 'get', path: '/api/releases/:suffix/access', access: access.public, summary: 'Whether the caller may download the files, why, and the download count',
+      handler: async (req, res) => res.json(await downloads.accessBySuffix(suffix.parse(req.params.suffix), viewer(res))),
+    }),
+    route({
+      method: 'get', path: '/api/releases/:suffix/files/:fileName/download', access: access.public, summary: 'Download one file: a short-lived presigned URL, after the access check (302)',
+      handler: async (req, res) => res.redirect(302, await downloads.fileUrl(suffix.parse(req.params.suffix), z.string().min(1).max(500).parse(req.params.fileName), viewer(res))),
+    }),
+    route({
+      method: 'get', path: '/api/releases/:suffix/bundle', access: access.public, summary: 'Download the BagIt bundle (ZIP) of the release (302 to a presigned URL)',
+      handler: async (req, res) => res.redirect(302, await downloads.bundleUrl(suffix.parse(req.params.suffix), viewer(res))),
     }),
     route({
       method: 'get', path: '/api/releases/:suffix/citation/:format', access: access.public, summary: 'The citation as BibTeX, RIS, CSL-JSON or CITATION.cff',

@@ -13,6 +13,7 @@ import type { JobQueue } from '../jobs/job-queue';
 import type { Mailer } from '../mail/mailer';
 import { mailTemplates } from '../mail/templates';
 import type { QuotaService } from './quota.service';
+import { BUNDLE_JOB } from './downloads.service';
 import { validateMetadata } from '../../shared/metadata/validate-metadata';
 import { formatDoi, newDatasetSuffix, releaseSuffix } from '../../shared/identifiers';
 import { paths } from '../../shared/paths';
@@ -369,6 +370,7 @@ export function createDepositingService(d: Deps) {
       });
       const suffix = releaseSuffix(dataset.suffix, version);
       await d.jobs.enqueue(REGISTER_JOB, { releaseId }, { maxAttempts: 8 });
+      await d.jobs.enqueue(BUNDLE_JOB, { releaseId }, { maxAttempts: 5 });
       const depositor = (await d.labs.members(lab.id)).find((m) => m.userId === draft.createdBy);
       const url = `${d.publicBaseUrl}${paths.release(suffix)}`;
       if (depositor) await notify([depositor.email], (to) => mailTemplates.draftPublished(to, actor.name, meta.title, doiOf(suffix), url));

@@ -180,3 +180,19 @@ export const releaseFile = pgTable(
   },
   (t) => [index('release_file_release_idx').on(t.releaseId)],
 );
+
+/** One row per download of a release file or bundle (counts on landing pages and lab pages). */
+export const downloadEvent = pgTable(
+  'download_event',
+  {
+    id: text().primaryKey(),
+    releaseId: text()
+      .notNull()
+      .references(() => release.id, { onDelete: 'restrict' }),
+    // Null for the whole bundle.
+    fileName: text(),
+    userId: text(),
+    createdAt: timestamp({ withTimezone: true }).defaultNow().notNull(),
+  },
+  (t) => [index('download_event_release_idx').on(t.releaseId)],
+);

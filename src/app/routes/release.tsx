@@ -122,7 +122,7 @@ function Landing({ r }: { r: ReleaseLanding }) {
             </Section>
           ) : null}
           <Section title="Files">
-            <ReleaseFiles files={r.files} />
+            <ReleaseFiles suffix={r.suffix} files={r.files} />
           </Section>
           {r.results.map((x) => (
             <Section key={x.fileName} title={`Statistics of ${x.fileName}`}>

@@ -1,0 +1,111 @@
+import { createHash } from 'node:crypto';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { startTestApp, type TestApp } from '../support/test-app';
+import { signInDemo, signUpAndVerify } from '../support/accounts';
+import { fixture, uploadFile, validMetadata, waitForFile } from '../support/depositing';
+import { httpClient, type HttpClient } from '../support/http-client';
+import { readZip } from '../support/zip';
+
+const LAB = 'fenmoor-swarm-ecology';
+let app: TestApp;
+let depositor: HttpClient;
+let curator: HttpClient;
+
+beforeAll(async () => {
+  app = await startTestApp();
+  depositor = await signInDemo(app, 'mina.throssel@fenmoor.example');
+  curator = await signInDemo(app, 'rafael.quist@fenmoor.example');
+});
+afterAll(async () => app?.close());
+
+async function publish(title: string, access: Record<string, unknown>, files: Array<[string, Buffer, string?]>) {
+  const { draftId } = (await depositor.post(`/api/labs/${LAB}/datasets`, { title, summary: '' })).json;
+  await depositor.put(`/api/labs/${LAB}/drafts/${draftId}/metadata`, { metadata: validMetadata({ title, access }) });
+  for (const [name, bytes, role] of files) await waitForFile(depositor, LAB, draftId, await uploadFile(depositor, LAB, draftId, name, bytes, role));
+  expect((await depositor.post(`/api/labs/${LAB}/drafts/${draftId}/submit`)).status).toBe(200);
+  const res = await curator.post(`/api/labs/${LAB}/drafts/${draftId}/publish`, {});
+  expect(res.status).toBe(201);
+  return res.json as { suffix: string; doi: string; releaseId: string };
+}
+
+async function follow(http: HttpClient, path: string) {
+  const res = await http.get(path);
+  if (res.status !== 302) return { status: res.status, json: res.json, body: null as Buffer | null, headers: res.headers };
+  const dl = await fetch(res.headers.get('location')!);
+  return { status: 302, json: null, body: Buffer.from(await dl.arrayBuffer()), headers: dl.headers };
+}
+
+const sha = (b: Buffer, algo = 'sha256') => createHash(algo).update(b).digest('hex');
+
+describe('release bundles in BagIt layout (RFC 8493)', () => {
+  it('builds one ZIP per release with valid manifests, and counts downloads', async () => {
+    const traj = fixture('trapped-langevin-swarm.csv.gz');
+    const notes = Buffer.from('Camera notes for the demo.\n');
+    const rel = await publish('Bundled swarm', { level: 'open' }, [['swarm.csv.gz', traj], ['notes.txt', notes, 'supplementary']]);
+    const visitor = httpClient(app.url);
+    await expect.poll(async () => (await visitor.get(`/api/releases/${rel.suffix}/access`)).json.bundleReady, { timeout: 20_000 }).toBe(true);
+
+    const got = await follow(visitor, `/api/releases/${rel.suffix}/bundle`);
+    expect(got.status).toBe(302);
+    expect(got.headers.get('content-disposition')).toContain(`${rel.suffix}.zip`);
+    const zip = await readZip(got.body!);
+    const root = `${rel.suffix}/`;
+    const text = (p: string) => zip.get(root + p)!.toString('utf8');
+    // RFC 8493 §2.1.1: bagit.txt holds exactly the version and the tag-file encoding.
+    expect(text('bagit.txt')).toBe('BagIt-Version: 1.0\nTag-File-Character-Encoding: UTF-8\n');
+    expect(zip.get(root + 'data/trajectories/swarm.csv.gz')!.equals(traj)).toBe(true);
+    expect(zip.get(root + 'data/supplementary/notes.txt')!.equals(notes)).toBe(true);
+    for (const f of ['metadata.json', 'statistics.json', 'CITATION.cff', 'README.txt']) expect(zip.has(`${root}data/metadata/${f}`), f).toBe(true);
+
+    // Every payload file is in both manifests with the right digest, and nothing else is (§3).
+    const payload = [...zip.keys()].filter((k) => k.startsWith(root + 'data/')).map((k) => k.slice(root.length));
+    for (const algo of ['sha256', 'sha512']) {
+      const lines = text(`manifest-${algo}.txt`).trim().split('\n').map((l) => l.split(/\s+/));
+      expect(lines.map((l) => l[1]).sort()).toEqual(payload.sort());
+      for (const [digest, path] of lines) expect(digest, path).toBe(sha(zip.get(root + path)!, algo));
+    }
+    // bag-info.txt: Payload-Oxum = octets.streams over data/ (§2.2.2), plus the identifier and the organisation.
+    const info = Object.fromEntries(text('bag-info.txt').trim().split('\n').map((l) => [l.slice(0, l.indexOf(':')), l.slice(l.indexOf(':') + 2)]));
+    const octets = payload.reduce((s, p) => s + zip.get(root + p)!.length, 0);
+    expect(info['Payload-Oxum']).toBe(`${octets}.${payload.length}`);
+    expect(info['External-Identifier']).toBe(rel.doi);
+    expect(info['Source-Organization']).toBe('Fenmoor Swarm Ecology Group');
+    expect(info['Bagging-Date']).toMatch(/^\d{4}-\d{2}-\d{2}$/);
+    const tags = text('tagmanifest-sha256.txt').trim().split('\n').map((l) => l.split(/\s+/));
+    expect(tags.map((t) => t[1]).sort()).toEqual(['bag-info.txt', 'bagit.txt', 'manifest-sha256.txt', 'manifest-sha512.txt']);
+    for (const [digest, path] of tags) expect(digest).toBe(sha(zip.get(root + path)!));
+    expect(text('data/metadata/README.txt')).toContain(rel.doi);
+
+    // Single files: presigned, named, counted.
+    const one = await follow(visitor, `/api/releases/${rel.suffix}/files/swarm.csv.gz/download`);
+    expect(one.status).toBe(302);
+    expect(one.headers.get('content-disposition')).toContain('filename="swarm.csv.gz"');
+    expect(one.body!.equals(traj)).toBe(true);
+    expect((await visitor.get(`/api/releases/${rel.suffix}/access`)).json.downloads).toBe(2);
+    expect((await visitor.get(`/api/releases/${rel.suffix}/files/nope.csv/download`)).status).toBe(404);
+  });
+
+  it('serves restricted files only to the lab, and refuses visitors and strangers clearly', async () => {
+    const rel = await publish('Restricted swarm', { level: 'restricted' }, [['swarm.csv.gz', fixture('adaptive-gravity-swarm.csv.gz')]]);
+    const visitor = httpClient(app.url);
+    const anon = await visitor.get(`/api/releases/${rel.suffix}/files/swarm.csv.gz/download`);
+    expect(anon.status).toBe(401);
+    expect(anon.json.message).toMatch(/shared on request/);
+    const stranger = await signUpAndVerify(app, 'stranger');
+    expect((await stranger.http.get(`/api/releases/${rel.suffix}/files/swarm.csv.gz/download`)).status).toBe(403);
+    expect((await stranger.http.get(`/api/releases/${rel.suffix}/access`)).json).toMatchObject({ allowed: false });
+    expect((await depositor.get(`/api/releases/${rel.suffix}/files/swarm.csv.gz/download`)).status).toBe(302);
+    // The statistics stay public.
+    expect((await visitor.get(`/api/releases/${rel.suffix}`)).json.results.length).toBe(1);
+  });
+
+  it('opens an embargoed release once its date has passed', async () => {
+    const future = await publish('Embargoed swarm', { level: 'embargoed', embargoUntil: '2099-01-01' }, [['swarm.csv.gz', fixture('vicsek-flock-3d.csv.gz')]]);
+    const past = await publish('Embargo over', { level: 'embargoed', embargoUntil: '2020-01-01' }, [['swarm.csv.gz', fixture('vicsek-flock-3d.csv.gz')]]);
+    const visitor = httpClient(app.url);
+    const closed = await visitor.get(`/api/releases/${future.suffix}/files/swarm.csv.gz/download`);
+    expect(closed.status).toBe(401);
+    expect(closed.json.message).toMatch(/embargo until 2099-01-01/);
+    expect((await visitor.get(`/api/releases/${past.suffix}/files/swarm.csv.gz/download`)).status).toBe(302);
+  });
+});
