@@ -44,6 +44,7 @@ const envSchema = z.object({
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   DEMO_SEED: bool.optional(),
   DEMO_RELEASES: bool.default(true),
+  JOB_WORKER: bool.default(true),
 });
 
 export type Config = {
@@ -64,6 +65,8 @@ export type Config = {
   demoSeed: boolean;
   // Publish the synthetic demo releases too (off in tests, which make their own).
   demoReleases: boolean;
+  // Run background jobs in this process (off for API-only instances).
+  jobWorker: boolean;
 };
 
 export class ConfigError extends Error {}
@@ -121,5 +124,6 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     // Demo data only where nobody asked otherwise and it is not production.
     demoSeed: e.DEMO_SEED ?? !production,
     demoReleases: e.DEMO_RELEASES,
+    jobWorker: e.JOB_WORKER,
   };
 }

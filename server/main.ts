@@ -8,7 +8,7 @@ const mode: ClientMode = process.argv.includes('--dev') ? 'vite' : 'dist';
 
 try {
   const config = loadConfig();
-  const running = await startCohesia({ config, client: mode, startFakes: true });
+  const running = await startCohesia({ config, client: mode, startFakes: true, workers: config.jobWorker });
   const base = config.publicBaseUrl;
   const lines = [
     '',
