@@ -1,4 +1,4 @@
-import { and, asc, count, eq, gt, lte, sum } from 'drizzle-orm';
+import { and, asc, count, eq, gt, lte, sql, sum } from 'drizzle-orm';
 import type { Db } from '../db/client';
 import { storedObject, storageReservation } from '../db/schema/storage';
 import { labBilling, storagePlan } from '../db/schema/billing';
@@ -50,6 +50,17 @@ function queries(db: Conn) {
         .groupBy(storedObject.mediaType)
         .orderBy(asc(storedObject.mediaType));
       return rows.map((r) => ({ mediaType: r.mediaType, objects: n(r.objects), bytes: n(r.bytes) }));
+    },
+
+    /** Bytes in objects that some published release holds, and in objects only drafts hold. */
+    async usageByPlace(labId: string) {
+      const inRelease = sql<boolean>`exists (select 1 from release_file rf where rf.object_key = ${storedObject.objectKey})`;
+      const rows = await db
+        .select({ released: inRelease, objects: count(), bytes: sum(storedObject.sizeBytes) })
+        .from(storedObject)
+        .where(eq(storedObject.labId, labId))
+        .groupBy(inRelease);
+      return rows.map((r) => ({ released: !!r.released, objects: n(r.objects), bytes: n(r.bytes) }));
     },
 
     async insertReservation(values: { labId: string; bytes: number; expiresAt: Date }): Promise<ReservationRow> {

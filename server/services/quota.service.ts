@@ -65,6 +65,8 @@ export type StorageUsageSummary = {
   onFreeTier: boolean;
   objectCount: number;
   breakdown: Array<{ label: string; objects: number; bytes: number }>;
+  // The same bytes by where they are: in published releases, or only in drafts.
+  byPlace: Array<{ label: string; objects: number; bytes: number }>;
   uploadsBlocked: boolean;
   blockedReason: string | null;
 };
@@ -108,6 +110,11 @@ export function createQuotaService(deps: QuotaDeps) {
         await storage.reservedBytes(labId, t),
         await storage.usageByMediaType(labId),
       ];
+      const places = await storage.usageByPlace(labId);
+      const byPlace = [true, false].map((released) => {
+        const r = places.find((x) => x.released === released);
+        return { label: released ? 'In published releases' : 'Only in drafts', objects: r?.objects ?? 0, bytes: r?.bytes ?? 0 };
+      });
       const p = plan(state);
       const groups = new Map<string, { objects: number; bytes: number }>();
       for (const r of byType) {
@@ -126,6 +133,7 @@ export function createQuotaService(deps: QuotaDeps) {
         onFreeTier: p.onFreeTier,
         objectCount: used.objects,
         breakdown,
+        byPlace,
         uploadsBlocked: reason !== null,
         blockedReason: reason,
       };

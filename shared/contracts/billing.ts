@@ -72,6 +72,7 @@ export const storageUsage = z.object({
   onFreeTier: z.boolean(),
   objectCount: z.number(),
   breakdown: z.array(z.object({ label: z.string(), objects: z.number(), bytes: z.number() })),
+  byPlace: z.array(z.object({ label: z.string(), objects: z.number(), bytes: z.number() })),
   uploadsBlocked: z.boolean(),
   blockedReason: z.string().nullable(),
 });

@@ -109,3 +109,14 @@ describe('release bundles in BagIt layout (RFC 8493)', () => {
     expect((await visitor.get(`/api/releases/${past.suffix}/files/swarm.csv.gz/download`)).status).toBe(302);
   });
 });
+
+describe('storage usage by place', () => {
+  it('splits the bytes into published releases and drafts only, counting each object once', async () => {
+    const lead = await signInDemo(app, 'ilse.marten@fenmoor.example');
+    const usage = (await lead.get(`/api/labs/${LAB}/storage`)).json;
+    const places = Object.fromEntries((usage.usage ?? usage).byPlace.map((p: { label: string; bytes: number }) => [p.label, p.bytes]));
+    expect(places['In published releases']).toBeGreaterThan(0);
+    const total = (usage.usage ?? usage).byPlace.reduce((s: number, p: { bytes: number }) => s + p.bytes, 0);
+    expect(total).toBe((usage.usage ?? usage).usedBytes);
+  });
+});

@@ -54,6 +54,25 @@ export function UsageMeter({ usage }: { usage: StorageUsage }) {
           )}
         </tbody>
       </table>
+      <table className="mt-4 w-full text-sm">
+        <caption className="sr-only">Storage by where the files are</caption>
+        <thead>
+          <tr className="border-b border-mist text-left">
+            <th className="py-1 font-semibold">Where</th>
+            <th className="py-1 text-right font-semibold">Files</th>
+            <th className="py-1 text-right font-semibold">Size</th>
+          </tr>
+        </thead>
+        <tbody>
+          {(usage.byPlace ?? []).map((b) => (
+            <tr key={b.label} className="border-b border-mist/70">
+              <td className="py-1">{b.label}</td>
+              <td className="py-1 text-right tabular-nums">{b.objects}</td>
+              <td className="py-1 text-right tabular-nums">{formatBytes(b.bytes)}</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
       <p className="mt-2 text-xs text-ink/70">
         Each stored file counts once, however many drafts and releases include it. Space held for uploads in progress counts until they finish or are cancelled.
       </p>
