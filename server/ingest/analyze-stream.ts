@@ -1,11 +1,52 @@
+/*
+ * Trajectory engine: threads, batching and the settings that bound the cost.
+ *
+ *   source bytes ─▶ [gzip: zlib on the libuv pool, 1 MiB output chunks, 8 MiB read-ahead]
+ *                ─▶ text chunks ─▶ ParseOffload (parse-offload.ts), which starts ONE worker thread once
+ *                   1 MiB has been seen (small inputs stay single-threaded):
+ *                     · plain text: the first 4 MiB (and whatever arrives before the worker is up) are
+ *                       parsed here by DelimitedTextParser (byte-level, fast path for plain decimal lines);
+ *                       then whole-line blocks go to the worker (parseDataBlock, ≤ 4 blocks in flight);
+ *                       a block it declines (quotes, exponents, problems) is parsed here, so every
+ *                       message and number is unchanged
+ *                     · gzip: parsed here (zlib already occupies a second thread)
+ *                ─▶ columnar batches (≈16k rows: track index, line, typed columns)
+ *                ─▶ createIngest (shared/engine/ingest.ts), in this thread:
+ *                     · cleanRows: units, finite positions, duplicate/order checks per track, one pass
+ *                     · frame-sorted files stream straight into the FramePipeline; the first
+ *                       maxReorderRows rows are also kept so a file found out of order can still be
+ *                       reordered (streamed frames are then discarded and replayed sorted)
+ *                     · FramePipeline: per-track Gaussian kernels (contiguous ring per track); frames
+ *                       emitted L frames later as typed-array views
+ *                     · FrameStatistics: one pass per frame (centroid, radius, speed, radial bins);
+ *                       moments per frame (two-pass + Pébay merge); close pairs every frame
+ *                       (sort-and-sweep keeping the x-order between frames; cell list from
+ *                       bruteForceBelow = 260); nearest neighbours every round(neighbourSampleInterval × fps)-th
+ *                       frame, fused with the pair pass by brute force for small groups
+ *                     · velocity autocorrelation: its samples are batched (64k) to the worker, which runs
+ *                       the same accumulator; the result is fetched after completeInput(), before end()
+ *
+ * Both threads run pure functions of shared/ (the worker gets their source text, no module loader).
+ * Settings that trade cost for sampling (stored in the result's parameters): neighbourSampleInterval (0.04 s),
+ * autocorrelationOriginStride (5 frames), bruteForceBelow (260).
+ * Memory: the reorder store (maxReorderRows rows, ≈50 MB), ±L frames of rows, one autocorrelation ring per
+ * active track, ≤ 4 parse blocks and ≤ 8 autocorrelation batches in flight; not the file size.
+ */
 import { Readable } from 'node:stream';
 import { createGunzip, type ZlibOptions } from 'node:zlib';
 import { createIngest, type IngestOptions } from '../../shared/engine/ingest';
 import type { ResultDocument } from '../../shared/engine/result-document';
+import { ParseOffload } from './parse-offload';
 
 export interface AnalyzeStreamOptions extends IngestOptions {
   /** zlib output chunk size; large chunks keep the parser out of zlib's small-buffer cadence. Default 1 MiB. */
   gunzipChunkSize?: number;
+  /**
+   * Use a worker thread once the text exceeds 1 MiB: it computes the velocity autocorrelation and, for plain
+   * text beyond 4 MiB, parses (gzip: the main thread parses, zlib already inflates on a second thread).
+   * false: everything in this thread; 'always': parse in the worker from the first chunk (tests).
+   */
+  parseWorker?: boolean | 'always';
 }
 
 export interface IngestProgress {
@@ -35,8 +76,16 @@ export async function analyzeStream(
   const iterator = readable[Symbol.asyncIterator]() as AsyncIterator<Buffer | string>;
   const first = await nextChunk(iterator);
   const gzip = first !== null && first.length >= 2 && first[0] === GZIP_MAGIC_0 && first[1] === GZIP_MAGIC_1;
-  const ingest = createIngest({ ...options, source: { ...options.source, compression: gzip ? 'gzip' : 'none' } });
+  let text: ParseOffload | null = null;
+  const ingest = createIngest({
+    ...options,
+    source: { ...options.source, compression: gzip ? 'gzip' : 'none' },
+    createAutocorrelation: options.createAutocorrelation ?? ((maxLag, stride) => text!.createAutocorrelation(maxLag, stride)),
+  });
   const report = () => onProgress?.({ bytesIn, bytesParsed: ingest.bytesRead, rows: ingest.rowsRead });
+  // gzip already inflates on a second thread (libuv pool): parsing in the worker too measured slower on two cores.
+  const offload = new ParseOffload(ingest, options.parseWorker ?? !gzip, options.parseWorker !== false);
+  text = offload;
 
   async function* raw(): AsyncGenerator<Buffer> {
     if (first === null) return;
@@ -53,10 +102,11 @@ export async function analyzeStream(
   try {
     if (!gzip) {
       for await (const chunk of raw()) {
-        ingest.push(chunk);
+        await offload.push(chunk);
         report();
         if (ingest.stopped) break;
       }
+    await offload.finish();
     } else {
       const chunkSize = options.gunzipChunkSize ?? 1 << 20;
       // A deep readable buffer lets zlib inflate ahead (on the thread pool) while this loop parses.
@@ -66,10 +116,11 @@ export async function analyzeStream(
       source.pipe(gunzip);
       try {
         for await (const chunk of gunzip as AsyncIterable<Buffer>) {
-          ingest.push(chunk);
+          await offload.push(chunk);
           report();
           if (ingest.stopped) break;
         }
+    await offload.finish();
       } catch (e) {
         const msg = (e as Error).message;
         if (!ingest.stopped) {
@@ -87,6 +138,7 @@ export async function analyzeStream(
   } catch (e) {
     ingest.fail('read-failed', `The file could not be read: ${(e as Error).message}.`);
   } finally {
+    offload.close();
     if (iterator.return) await iterator.return().catch(() => undefined);
   }
   report();

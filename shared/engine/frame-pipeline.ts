@@ -1,6 +1,7 @@
 import { gaussianDerivativeKernels, type DerivativeKernels } from '../stats/index';
 import type { EmittedFrame } from './frame-statistics';
 import { IssueCollector, rowLabel } from './issues';
+import type { RowColumns } from './ingest';
 import type { EngineSettings } from './settings';
 
 /** Per-track summary kept for the whole file (a few numbers per track). */
@@ -84,6 +85,19 @@ export class FramePipeline {
     return this.mismatchRef > 0 ? Math.sqrt(this.mismatch / this.mismatchRef) : NaN;
   }
 
+  /**
+   * Adds rows [from, to) of `c` (row `order[k]` if given) with their integer frames in `frames[k − from]`;
+   * returns the first k whose frame is earlier than the current one (input not sorted by frame), else −1.
+   */
+  pushRows(c: RowColumns, frames: Float64Array, order: Uint32Array | null, from: number, to: number): number {
+    const { track, line, x, y, z, vx, vy, vz, ax, ay, az } = c;
+    for (let k = from; k < to; k++) {
+      const i = order ? order[k] : k;
+      if (!this.push(track[i], frames[k - from], x[i], y[i], z[i], vx[i], vy[i], vz[i], ax[i], ay[i], az[i], line[i])) return k;
+    }
+    return -1;
+  }
+
   /** Adds one row; returns false if its frame is earlier than the current one (input not sorted by frame). */
   push(track: number, frame: number, x: number, y: number, z: number, vx: number, vy: number, vz: number, ax: number, ay: number, az: number, line: number): boolean {
     if (frame !== this.current) {
@@ -145,13 +159,16 @@ export class FramePipeline {
     const L = this.L;
     const W = 2 * L + 1;
     if (!ts.pos) {
-      ts.pos = new Float64Array(3 * W);
+      ts.pos = new Float64Array(6 * W);
       ts.seq = new Float64Array(W);
     }
+    // Each sample is written twice (slots s and s + W) so the window of the last W samples is contiguous.
     const slot = ts.run % W;
-    ts.pos[3 * slot] = x;
-    ts.pos[3 * slot + 1] = y;
-    ts.pos[3 * slot + 2] = this.dims === 3 ? z : 0;
+    const pos = ts.pos;
+    const zz = this.dims === 3 ? z : 0;
+    pos[3 * slot] = pos[3 * (slot + W)] = x;
+    pos[3 * slot + 1] = pos[3 * (slot + W) + 1] = y;
+    pos[3 * slot + 2] = pos[3 * (slot + W) + 2] = zz;
     ts.seq![slot] = this.seq;
     ts.run++;
     if (ts.run < W) return;
@@ -159,15 +176,15 @@ export class FramePipeline {
     const k1 = this.kernels!.first, k2 = this.kernels!.second;
     let vx = 0, vy = 0, vz = 0, ax = 0, ay = 0, az = 0;
     const base = ts.run % W;
-    for (let j = 0; j < W; j++) {
-      const q = 3 * ((base + j) % W);
-      const px = ts.pos[q], py = ts.pos[q + 1], pz = ts.pos[q + 2];
-      vx += k1[j] * px;
-      vy += k1[j] * py;
-      vz += k1[j] * pz;
-      ax += k2[j] * px;
-      ay += k2[j] * py;
-      az += k2[j] * pz;
+    for (let j = 0, q = 3 * base; j < W; j++, q += 3) {
+      const px = pos[q], py = pos[q + 1], pz = pos[q + 2];
+      const c1 = k1[j], c2 = k2[j];
+      vx += c1 * px;
+      vy += c1 * py;
+      vz += c1 * pz;
+      ax += c2 * px;
+      ay += c2 * py;
+      az += c2 * pz;
     }
     const inv = 1 / this.dt;
     const inv2 = inv * inv;

@@ -8,12 +8,17 @@ import {
   milling,
   momentsFromAccumulator,
   nearestNeighbourDistances,
+  nearestNeighboursAndPairs,
   pairsWithinDistance,
   polarization,
+  PairList,
+  SweepOrder,
   quantileSorted,
   randomHeadingPolarization,
   shellVolume,
   springConstantFit,
+  type AutocorrelationAccumulator,
+  type ClosePairs,
   type FrameView,
   type MomentAccumulator,
   type PairEvent,
@@ -31,6 +36,21 @@ export interface EmittedFrame {
   view: FrameView;
   track: Int32Array;
   line: Int32Array;
+}
+
+/** A frame of the calibration period, kept to replay it once d* is known. */
+interface CalibrationFrame {
+  frame: number;
+  time: number;
+  track: Int32Array;
+  line: Int32Array;
+  x: Float64Array;
+  y: Float64Array;
+  z: Float64Array;
+  nn: Float64Array;
+  nb: Int32Array;
+  /** Whether the frame is one of the nearest-neighbour sample. */
+  sampled: boolean;
 }
 
 // Channels of the radial histogram.
@@ -57,11 +77,21 @@ export class FrameStatistics {
   private readonly nnHist: GrowableHistogram;
   private readonly radial: GrowableHistogram;
   private readonly series: Record<string, SeriesDownsampler> = {};
-  private readonly acf: ReturnType<typeof createAutocorrelationAccumulator> | null;
+  private readonly acf: AutocorrelationAccumulator | null;
   private readonly acfMaxLag: number;
   private pairTracker: PairTracker | null = null;
   private pairDistance: number | null;
-  private readonly calibration: { nn: number[]; frames: { frame: number; track: Int32Array; x: Float64Array; y: Float64Array; z: Float64Array }[] } = { nn: [], frames: [] };
+  private readonly calibration: { nn: number[]; frames: CalibrationFrame[] } = { nn: [], frames: [] };
+  /** Nearest neighbours are taken on every nnStride-th frame (setting neighbourSampleInterval). */
+  private readonly nnStride: number;
+  private swapDistance = 0;
+  /** Identity-swap distance in use (metres): the setting, or identitySwapFactor × median NN distance once calibrated. */
+  resolvedSwapDistance: number | null;
+  private readonly sweep = new SweepOrder();
+  private readonly pairList = new PairList();
+  /** Per-frame scratch: speeds and velocity components of the rows with a finite speed. */
+  private speedBuf: Float64Array[] = [new Float64Array(0)];
+  private trackBuf = new Int32Array(0);
   readonly pairEvents: PairEvent[] = [];
   pairEventCount = 0;
   private pairedTracks = new Set<number>();
@@ -78,6 +108,7 @@ export class FrameStatistics {
     private readonly fps: number,
     private readonly issues: IssueCollector,
     private readonly trackNames: string[],
+    createAutocorrelation: (maxLag: number, originStride: number) => AutocorrelationAccumulator = createAutocorrelationAccumulator,
   ) {
     const full = s.mode === 'full';
     this.compHist = [0, 1, 2].map(() => new GrowableHistogram(s.histogramBins, 1, true));
@@ -87,8 +118,10 @@ export class FrameStatistics {
     for (const k of ['individuals', 'cx', 'cy', 'cz', 'radius', 'meanSpeed', 'polarization', 'milling', 'meanNearestNeighbour'])
       this.series[k] = new SeriesDownsampler(s.seriesPoints);
     this.acfMaxLag = Math.max(1, Math.round(s.autocorrelationMaxLag * fps));
-    this.acf = full ? createAutocorrelationAccumulator(this.acfMaxLag, s.autocorrelationOriginStride) : null;
+    this.acf = full ? createAutocorrelation(this.acfMaxLag, s.autocorrelationOriginStride) : null;
     this.pairDistance = s.pairDistance;
+    this.nnStride = Math.max(1, Math.round(s.neighbourSampleInterval * fps));
+    this.resolvedSwapDistance = s.identitySwapDistance;
     if (full && this.pairDistance !== null) this.startPairs(this.pairDistance);
     this.quickLook = full ? new QuickLookSampler(s.quickLookSeconds, s.quickLookFps, fps, dims) : null;
   }
@@ -125,8 +158,17 @@ export class FrameStatistics {
     let sumSpeed = 0, nSpeed = 0, r2 = 0, nr = 0;
     const hasV = vx !== undefined;
     const hasA = view.ax !== undefined;
+    if (this.speedBuf[0].length < n) {
+      this.speedBuf = Array.from({ length: 4 }, () => new Float64Array(2 * n));
+      this.trackBuf = new Int32Array(2 * n);
+    }
+    const [spB, uxB, uyB, uzB] = this.speedBuf;
+    const trB = this.trackBuf;
+    const three = dims === 3;
+    const cx = c.x, cy = c.y, cz = c.z;
+    // Hot loop: one pass per row; moments are added per frame from the compacted speed and component columns.
     for (let i = 0; i < n; i++) {
-      const dx = x[i] - c.x, dy = y[i] - c.y, dz = dims === 3 ? z[i] - c.z : 0;
+      const dx = x[i] - cx, dy = y[i] - cy, dz = three ? z[i] - cz : 0;
       const rr = dx * dx + dy * dy + dz * dz;
       const r = Math.sqrt(rr);
       if (r === r) {
@@ -139,35 +181,42 @@ export class FrameStatistics {
         if (k >= 0) this.radial.channels[R_ALL][k]++;
       }
       if (hasV) {
-        const ux = vx[i], uy = vy[i], uz = dims === 3 ? vz[i] : 0;
+        const ux = vx[i], uy = vy[i], uz = three ? vz[i] : 0;
         const sp = Math.sqrt(ux * ux + uy * uy + uz * uz);
         if (sp === sp) {
           sumSpeed += sp;
+          spB[nSpeed] = sp;
+          uxB[nSpeed] = ux;
+          uyB[nSpeed] = uy;
+          uzB[nSpeed] = uz;
+          trB[nSpeed] = track[i];
           nSpeed++;
-          this.speedAcc.add(sp);
-          this.comp[0].add(ux);
-          this.comp[1].add(uy);
-          if (dims === 3) this.comp[2].add(uz);
-          if (full) {
-            this.speedHist.add(sp, 0, 1);
-            this.compHist[0].add(ux, 0, 1);
-            this.compHist[1].add(uy, 0, 1);
-            if (dims === 3) this.compHist[2].add(uz, 0, 1);
-            if (k >= 0) {
-              this.radial.channels[R_V][k]++;
-              this.radial.channels[R_SPEED][k] += sp;
-            }
-            this.acf!.add(track[i], f.frame, ux, uy, uz);
+          if (full && k >= 0) {
+            this.radial.channels[R_V][k]++;
+            this.radial.channels[R_SPEED][k] += sp;
           }
         }
       }
       if (full && hasA && k >= 0 && r > 0) {
-        const ar = (view.ax![i] * dx + view.ay![i] * dy + (dims === 3 ? view.az![i] * dz : 0)) / r;
+        const ar = (view.ax![i] * dx + view.ay![i] * dy + (three ? view.az![i] * dz : 0)) / r;
         if (ar === ar) {
           this.radial.channels[R_A][k]++;
           this.radial.channels[R_AR][k] += ar;
         }
       }
+    }
+    if (nSpeed > 0 && full) {
+      this.speedHist.addCounts(spB, nSpeed);
+      this.compHist[0].addCounts(uxB, nSpeed);
+      this.compHist[1].addCounts(uyB, nSpeed);
+      if (three) this.compHist[2].addCounts(uzB, nSpeed);
+      this.acf!.addFrame(f.frame, trB, uxB, uyB, uzB, nSpeed);
+    }
+    if (nSpeed > 0) {
+      this.speedAcc.addBatch(spB, nSpeed);
+      this.comp[0].addBatch(uxB, nSpeed);
+      this.comp[1].addBatch(uyB, nSpeed);
+      if (three) this.comp[2].addBatch(uzB, nSpeed);
     }
     const radius = nr > 0 ? Math.sqrt(r2 / nr) : NaN;
     this.radiusAcc.add(radius);
@@ -187,15 +236,54 @@ export class FrameStatistics {
     if (this.frames % 512 === 0) this.acf!.evictBefore(f.frame - 1);
   }
 
+  /**
+   * Nearest neighbours (on every `nnStride`-th frame, and on every calibration frame) and close pairs (every
+   * frame: a pair must stay below d* on consecutive frames). For small groups one brute-force pass gives both.
+   */
   private neighbours(f: EmittedFrame): void {
-    const { view, track, line } = f;
+    const { view, track } = f;
     const n = view.count;
     if (this.nnScratch.length < n) {
       this.nnScratch = new Float64Array(2 * n);
       this.nbScratch = new Int32Array(2 * n);
     }
+    const calibrating = !this.pairTracker;
+    const sampled = calibrating || this.frames % this.nnStride === 1 % this.nnStride;
+    const d = this.pairDistance ?? 0;
     const method = this.s.neighbourMethod;
-    const d = nearestNeighbourDistances(view, { method, bruteForceBelow: this.s.bruteForceBelow, out: this.nnScratch, neighbour: this.nbScratch });
+    const brute = method === 'brute' || (method === 'auto' && n < this.s.bruteForceBelow);
+    let nn: Float64Array | null = null;
+    let pairs: ClosePairs | null = null;
+    if (sampled && !calibrating && brute && d > 0) {
+      pairs = nearestNeighboursAndPairs(view, d, this.nnScratch, this.nbScratch, this.pairList);
+      nn = this.nnScratch;
+    }
+    if (sampled && !nn) nn = nearestNeighbourDistances(view, { method, bruteForceBelow: this.s.bruteForceBelow, out: this.nnScratch, neighbour: this.nbScratch });
+    if (nn && !calibrating) this.addNearest(f, n, nn, this.nbScratch, this.swapDistance);
+    if (calibrating) {
+      // Calibrate d* (and the identity-swap distance) on the first frames, keeping what is needed to replay them.
+      for (let i = 0; i < n; i++) if (nn![i] === nn![i]) this.calibration.nn.push(nn![i]);
+      this.calibration.frames.push({
+        frame: f.frame,
+        time: f.time,
+        track: track.slice(0, n),
+        line: f.line.slice(0, n),
+        x: Float64Array.from(view.x as ArrayLike<number>).subarray(0, n),
+        y: Float64Array.from(view.y as ArrayLike<number>).subarray(0, n),
+        z: Float64Array.from(view.z as ArrayLike<number>).subarray(0, n),
+        nn: nn!.slice(0, n),
+        nb: this.nbScratch.slice(0, n),
+        sampled: this.frames % this.nnStride === 1 % this.nnStride,
+      });
+      if (this.calibration.frames.length >= this.s.pairCalibrationFrames) this.calibrate();
+      return;
+    }
+    this.pairFrame(f.frame, view, track, pairs);
+  }
+
+  /** Adds one frame's nearest-neighbour distances to the statistics and checks for identity swaps. */
+  private addNearest(f: { frame: number; time: number; track: Int32Array; line: Int32Array }, n: number, d: Float64Array, nb: Int32Array, swap: number): void {
+    const { track, line } = f;
     let s = 0, k = 0;
     for (let i = 0; i < n; i++) {
       const di = d[i];
@@ -204,11 +292,11 @@ export class FrameStatistics {
       k++;
       this.nnAcc.add(di);
       this.nnHist.add(di, 0, 1);
-      if (di < this.s.identitySwapDistance) {
-        const j = this.nbScratch[i];
+      if (di < swap) {
+        const j = nb[i];
         const a = Math.min(track[i], track[j]), b = Math.max(track[i], track[j]);
         const key = a * 4294967296 + b;
-        if (i < j || this.nbScratch[j] !== i) {
+        if (i < j || nb[j] !== i) {
           if (!this.swapSeen.has(key) && this.swapSeen.size < 100000) this.swapSeen.add(key);
           this.issues.add(
             'identity-swap',
@@ -219,36 +307,26 @@ export class FrameStatistics {
       }
     }
     this.series.meanNearestNeighbour.add(f.time, k > 0 ? s / k : NaN);
-    if (!this.pairTracker) {
-      // Calibrate d* on the first frames, keeping their positions to replay.
-      for (let i = 0; i < n; i++) if (d[i] === d[i]) this.calibration.nn.push(d[i]);
-      this.calibration.frames.push({
-        frame: f.frame,
-        track: track.slice(0, n),
-        x: Float64Array.from(view.x as ArrayLike<number>).subarray(0, n),
-        y: Float64Array.from(view.y as ArrayLike<number>).subarray(0, n),
-        z: Float64Array.from(view.z as ArrayLike<number>).subarray(0, n),
-      });
-      if (this.calibration.frames.length >= this.s.pairCalibrationFrames) this.calibrate();
-      return;
-    }
-    this.pairFrame(f.frame, view, track);
   }
 
   private calibrate(): void {
     const sorted = Float64Array.from(this.calibration.nn).sort();
     const med = quantileSorted(sorted, 0.5);
     this.startPairs(med > 0 ? this.s.pairDistanceFactor * med : 0);
-    for (const cf of this.calibration.frames)
-      this.pairFrame(cf.frame, { count: cf.track.length, dims: this.dims, x: cf.x, y: cf.y, z: cf.z }, cf.track);
+    this.swapDistance = this.s.identitySwapDistance ?? (med > 0 ? this.s.identitySwapFactor * med : 0);
+    this.resolvedSwapDistance = this.swapDistance;
+    for (const cf of this.calibration.frames) {
+      if (cf.sampled) this.addNearest(cf, cf.track.length, cf.nn, cf.nb, this.swapDistance);
+      this.pairFrame(cf.frame, { count: cf.track.length, dims: this.dims, x: cf.x, y: cf.y, z: cf.z }, cf.track, null);
+    }
     this.calibration.frames = [];
     this.calibration.nn = [];
   }
 
-  private pairFrame(frame: number, view: FrameView, track: Int32Array): void {
+  private pairFrame(frame: number, view: FrameView, track: Int32Array, given: ClosePairs | null): void {
     const d = this.pairDistance!;
     if (!(d > 0)) return;
-    const p = pairsWithinDistance(view, d, { method: this.s.neighbourMethod, bruteForceBelow: this.s.bruteForceBelow });
+    const p = given ?? pairsWithinDistance(view, d, { method: this.s.neighbourMethod, bruteForceBelow: this.s.bruteForceBelow, sweep: this.sweep, list: this.pairList });
     const a = new Int32Array(p.count), b = new Int32Array(p.count);
     for (let k = 0; k < p.count; k++) {
       a[k] = track[p.a[k]];

@@ -15,8 +15,21 @@ export class GrowableHistogram {
     this.channels = Array.from({ length: channelCount }, () => new Float64Array(this.size));
   }
 
+  /** Lower edge and bins per unit of the current range (kept in step with max). */
+  private lo = 0;
+  private scale = 0;
+
   /** Bin index for v (growing the range if needed), or −1 for non-finite v. */
   index(v: number): number {
+    // Common case first: inside the current range (NaN fails the test).
+    if ((v < 0 ? -v : v) < this.max) {
+      const k = Math.floor((v - this.lo) * this.scale);
+      return k < this.size ? (k < 0 ? 0 : k) : this.size - 1;
+    }
+    return this.indexSlow(v);
+  }
+
+  private indexSlow(v: number): number {
     if (!Number.isFinite(v)) return -1;
     const a = Math.abs(v);
     if (this.max === 0) {
@@ -25,9 +38,19 @@ export class GrowableHistogram {
       this.max = Math.pow(2, Math.ceil(Math.log2(a * 1.25)));
     }
     while (a >= this.max) this.grow();
-    const lo = this.symmetric ? -this.max : 0;
-    const k = Math.floor(((v - lo) / (this.max - lo)) * this.size);
+    this.lo = this.symmetric ? -this.max : 0;
+    this.scale = this.size / (this.max - this.lo);
+    const k = Math.floor((v - this.lo) * this.scale);
     return Math.min(this.size - 1, Math.max(0, k));
+  }
+
+  /** Counts values[0..count) in channel 0 (same as add(v, 0, 1) for each). */
+  addCounts(values: ArrayLike<number>, count: number): void {
+    const c = this.channels[0];
+    for (let i = 0; i < count; i++) {
+      const k = this.index(values[i]);
+      if (k >= 0) c[k]++;
+    }
   }
 
   add(v: number, channel: number, w: number): void {
@@ -49,6 +72,8 @@ export class GrowableHistogram {
       }
     }
     this.max *= 2;
+    this.lo = this.symmetric ? -this.max : 0;
+    this.scale = this.size / (this.max - this.lo);
   }
 
   /** Bin edges (size + 1) in the values' units. */

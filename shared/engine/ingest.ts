@@ -1,10 +1,10 @@
-import { quantileSorted } from '../stats/index';
+import { quantileSorted, type AutocorrelationAccumulator } from '../stats/index';
 import type { ColumnMapping } from './columns';
 import { FramePipeline } from './frame-pipeline';
 import { FrameStatistics } from './frame-statistics';
 import { IssueCollector, rowLabel } from './issues';
 import { buildResultDocument, type InputDescription, type ResultDocument } from './result-document';
-import { DelimitedTextParser, type FileLayout, type RowBatch } from './text-parser';
+import { DelimitedTextParser, type BlockLayout, type FileLayout, type ParsedBlock, type RowBatch } from './text-parser';
 import { metresPerUnit, resolveSettings, type EngineSettings } from './settings';
 
 export interface IngestOptions {
@@ -15,15 +15,32 @@ export interface IngestOptions {
   hasHeader?: boolean | null;
   /** Description of the source, copied into the result. */
   source?: { name?: string; compression?: 'none' | 'gzip'; bytes?: number };
+  /**
+   * Makes the velocity-autocorrelation accumulator (default: in this thread). A server may compute it in a
+   * worker; its result() must be ready when end() is called.
+   */
+  createAutocorrelation?: (maxLag: number, originStride: number) => AutocorrelationAccumulator;
 }
 
 /** An ingest in progress: feed bytes with push(), then call end(). */
 export interface Ingest {
   push(chunk: Uint8Array): void;
+  /** Ends the input: the last rows and frames go through every statistic (end() does it if not done). */
+  completeInput(): void;
   /** Finishes the computation and returns the result document. */
   end(): ResultDocument;
   /** Records a problem of the byte source (e.g. a broken gzip stream) and stops. */
   fail(kind: 'corrupt-gzip' | 'read-failed', message: string): void;
+  /**
+   * For parsing in another thread: the layout once the header is known (null before, after a stop, or for
+   * space-separated files), then {@link takeLeftover} once, then whole-line blocks in file order, each either
+   * parsed by `parseDataBlock` ({@link pushParsed}) or as bytes ({@link push}).
+   */
+  blockLayout(): BlockLayout | null;
+  /** Bytes after the last line break seen so far; the caller feeds them again at the front of the next block. */
+  takeLeftover(): Uint8Array;
+  /** Rows of `bytes` bytes of text holding `lines` lines, parsed by `parseDataBlock`. */
+  pushParsed(block: ParsedBlock, lines: number, bytes: number): void;
   /** True once an error stopped the reading (the caller may stop reading too). */
   readonly stopped: boolean;
   readonly rowsRead: number;
@@ -33,20 +50,82 @@ export interface Ingest {
 const NUM = ['frame', 't', 'x', 'y', 'z', 'vx', 'vy', 'vz', 'ax', 'ay', 'az'] as const;
 type Num = (typeof NUM)[number];
 
-/** Growable columnar row store used to reorder files that are not sorted by frame. */
-class RowStore {
+/** Warnings raised downstream of the reorder store: dropped when streamed frames are discarded for a reorder. */
+const PIPELINE_ISSUES = ['track-gap', 'speed-jump', 'few-individuals', 'identity-swap', 'non-integer-frame'] as const;
+
+let nanCol = new Float64Array(0);
+/** A NaN column of at least n entries (absent columns). */
+function nanColumn(n: number): Float64Array {
+  if (nanCol.length < n) nanCol = new Float64Array(2 * n).fill(NaN);
+  return nanCol;
+}
+
+/** Columns of clean rows (scaled to metres, finite positions), as handed to the frame pipeline. */
+export interface RowColumns {
+  count: number;
+  track: Int32Array;
+  line: Int32Array;
+  /** Frame number or time, as in the file (the sort key). */
+  key: Float64Array;
+  /** Time column when present (frame-rate estimate), else NaN. */
+  t: Float64Array;
+  x: Float64Array;
+  y: Float64Array;
+  z: Float64Array;
+  vx: Float64Array;
+  vy: Float64Array;
+  vz: Float64Array;
+  ax: Float64Array;
+  ay: Float64Array;
+  az: Float64Array;
+}
+
+const FLOAT_COLS = ['key', 't', 'x', 'y', 'z', 'vx', 'vy', 'vz', 'ax', 'ay', 'az'] as const;
+
+/** Growable {@link RowColumns}: the per-batch clean rows and the reorder store. */
+class RowStore implements RowColumns {
   count = 0;
-  cols: Float64Array[] = Array.from({ length: 13 }, () => new Float64Array(4096));
-  push(vals: number[]): void {
-    if (this.count === this.cols[0].length) {
-      this.cols = this.cols.map((c) => {
-        const g = new Float64Array(c.length * 2);
-        g.set(c);
-        return g;
-      });
-    }
-    for (let i = 0; i < 13; i++) this.cols[i][this.count] = vals[i];
-    this.count++;
+  track = new Int32Array(0);
+  line = new Int32Array(0);
+  key = new Float64Array(0);
+  t = new Float64Array(0);
+  x = new Float64Array(0);
+  y = new Float64Array(0);
+  z = new Float64Array(0);
+  vx = new Float64Array(0);
+  vy = new Float64Array(0);
+  vz = new Float64Array(0);
+  ax = new Float64Array(0);
+  ay = new Float64Array(0);
+  az = new Float64Array(0);
+
+  constructor(capacity = 4096) {
+    this.reserve(capacity);
+  }
+
+  /** Makes room for `n` rows in all (keeps the content). */
+  reserve(n: number): void {
+    if (n <= this.track.length) return;
+    const cap = Math.max(n, 2 * this.track.length);
+    const grow = <T extends Int32Array | Float64Array>(old: T, make: (k: number) => T): T => {
+      const g = make(cap);
+      g.set(old.subarray(0, this.count));
+      return g;
+    };
+    this.track = grow(this.track, (k) => new Int32Array(k));
+    this.line = grow(this.line, (k) => new Int32Array(k));
+    for (const c of FLOAT_COLS) this[c] = grow(this[c], (k) => new Float64Array(k));
+  }
+
+  /** Appends the first `n` rows of `src`; columns not in `present` are filled (0 for a 2D third axis, else NaN). */
+  appendFirst(src: RowColumns, n: number, present: ReadonlySet<string>, dims: 2 | 3): void {
+    this.reserve(this.count + n);
+    this.track.set(src.track.subarray(0, n), this.count);
+    this.line.set(src.line.subarray(0, n), this.count);
+    for (const c of FLOAT_COLS)
+      if (present.has(c)) this[c].set(src[c].subarray(0, n), this.count);
+      else this[c].fill(dims === 2 && c.endsWith('z') ? 0 : NaN, this.count, this.count + n);
+    this.count += n;
   }
 }
 
@@ -69,17 +148,20 @@ export function createIngest(options: IngestOptions = {}): Ingest {
   let dims: 2 | 3 = 3;
   let scale = 1;
   let has: Record<Num, boolean> = Object.fromEntries(NUM.map((k) => [k, false])) as Record<Num, boolean>;
-  const lastKey: number[] = [];
+  // Last frame/time per track (NaN: not seen), for the duplicate and order checks on arrival.
+  let lastKey = new Float64Array(1024).fill(NaN);
+  // Rows kept in file order while fewer than maxReorderRows, so that a file found out of order can be reordered.
   let store: RowStore | null = new RowStore();
   let storeSorted = true;
   let storeLastKey = -Infinity;
+  const clean = new RowStore();
+  let frames = new Float64Array(0);
   let pipeline: FramePipeline | null = null;
   let stats: FrameStatistics | null = null;
   let fps = NaN;
   let failed = false;
+  let inputComplete = false;
   let rows = 0;
-  const vals = new Array<number>(13).fill(NaN);
-
   const settingsProblem = (): string | null => {
     if (s.units === 'px' && !(s.pixelScale !== null && s.pixelScale > 0)) return 'positions are in pixels but no pixel scale (metres per pixel) was given';
     if (!['m', 'cm', 'mm', 'px'].includes(s.units)) return `the unit "${s.units}" is not one of m, cm, mm, px`;
@@ -119,127 +201,202 @@ export function createIngest(options: IngestOptions = {}): Ingest {
     onRows: onRows,
   });
 
-  function onRows(b: RowBatch): void {
-    if (failed) return;
+  /** Clean columns that can hold something other than NaN (or 0 for the third axis in 2D). */
+  let present: Set<string> | null = null;
+  function presentColumns(): Set<string> {
+    if (present) return present;
+    const p = new Set<string>(['key', 'x', 'y']);
+    if (has.t) p.add('t');
+    for (const k of ['z', 'vx', 'vy', 'vz', 'ax', 'ay', 'az'] as const) if (has[k] && (dims === 3 || !k.endsWith('z'))) p.add(k);
+    present = p;
+    return p;
+  }
+
+  /** Validates, converts to metres and compacts one parsed batch into `clean`. */
+  function cleanRows(b: RowBatch): void {
     const v = b.values;
-    const col = NUM.map((k) => v[k]);
     const n = b.count;
+    clean.count = 0;
+    clean.reserve(n);
+    const nan = nanColumn(n);
+    const F = has.frame ? v.frame! : v.t!, T = v.t ?? nan;
+    const X = v.x!, Y = v.y!, Z = dims === 3 ? v.z! : nan;
+    const VX = v.vx ?? nan, VY = v.vy ?? nan, VZ = v.vz ?? nan, AX = v.ax ?? nan, AY = v.ay ?? nan, AZ = v.az ?? nan;
+    const c = clean;
+    const three = dims === 3;
+    let m = 0;
+    // Hot loop: one pass per row from the parser's columns into the clean columns.
     for (let i = 0; i < n; i++) {
+      const x = X[i] * scale, y = Y[i] * scale, z = three ? Z[i] * scale : 0;
+      if (!Number.isFinite(x) || !Number.isFinite(y) || !Number.isFinite(z)) continue;
       const track = b.track[i];
-      const line = b.line[i];
-      for (let c = 0; c < 11; c++) {
-        const a = col[c];
-        vals[c + 1] = a ? (c >= 2 ? a[i] * scale : a[i]) : NaN;
+      const key = F[i];
+      if (track >= lastKey.length) {
+        const g = new Float64Array(Math.max(track + 1, 2 * lastKey.length)).fill(NaN);
+        g.set(lastKey);
+        lastKey = g;
       }
-      if (dims === 2) vals[5] = 0;
-      if (!Number.isFinite(vals[3]) || !Number.isFinite(vals[4]) || (dims === 3 && !Number.isFinite(vals[5]))) continue;
-      const key = has.frame ? vals[1] : vals[2];
       const prev = lastKey[track];
-      if (prev !== undefined && key <= prev) {
+      if (key <= prev) {
+        const line = b.line[i];
         if (key === prev)
           issues.add('duplicate-frame', () => `${rowLabel(line)}: track ${parser.trackNames[track]} appears twice at ${has.frame ? 'frame' : 'time'} ${key}; the first row is kept.`, line);
         else
           issues.add('time-not-increasing', () => `${rowLabel(line)}: in track ${parser.trackNames[track]}, ${has.frame ? 'frame' : 'time'} ${key} comes after ${prev}; time must increase along a track (rows are reordered when possible).`, line);
-      }
-      if (prev === undefined || key > prev) lastKey[track] = key;
-      vals[0] = track;
-      vals[12] = line;
-      rows++;
-      if (store) {
-        if (key < storeLastKey) storeSorted = false;
-        storeLastKey = key;
-        store.push(vals);
-        if (store.count >= s.maxReorderRows) {
-          if (!storeSorted) {
-            issues.add(
-              'unsorted',
-              `${rowLabel(line)}: the file is not sorted by ${has.frame ? 'frame' : 'time'} and is too large to reorder in memory (more than ${s.maxReorderRows.toLocaleString('en-US')} rows). Sort it by ${has.frame ? 'frame' : 'time'} (then track) and upload it again.`,
-              line,
-            );
-            failed = true;
-            return;
-          }
-          drainStore();
-          if (failed) return;
+      } else lastKey[track] = key;
+      c.track[m] = track;
+      c.line[m] = b.line[i];
+      c.key[m] = key;
+      c.t[m] = T[i];
+      c.x[m] = x;
+      c.y[m] = y;
+      c.z[m] = z;
+      c.vx[m] = VX[i] * scale;
+      c.vy[m] = VY[i] * scale;
+      c.vz[m] = three ? VZ[i] * scale : 0;
+      c.ax[m] = AX[i] * scale;
+      c.ay[m] = AY[i] * scale;
+      c.az[m] = three ? AZ[i] * scale : 0;
+      m++;
+    }
+    c.count = m;
+  }
+
+  function onRows(b: RowBatch): void {
+    if (failed) return;
+    cleanRows(b);
+    const n = clean.count;
+    rows += n;
+    if (!store) {
+      if (!feed(clean, null, 0, n)) failed = true;
+      return;
+    }
+    // The first maxReorderRows rows go to the store too; the order is checked on them.
+    const from = store.count;
+    const take = Math.min(n, s.maxReorderRows - from);
+    if (storeSorted) {
+      const key = clean.key;
+      for (let i = 0; i < take; i++) {
+        if (key[i] < storeLastKey) {
+          storeSorted = false;
+          break;
         }
-      } else if (!feed(vals)) {
-        failed = true;
-        return;
+        storeLastKey = key[i];
       }
+    }
+    store.appendFirst(clean, take, presentColumns(), dims);
+    const full = store.count >= s.maxReorderRows;
+    if (!storeSorted) {
+      // Out of order: streamed frames are discarded; the stored rows are reordered at the end (or refused).
+      if (pipeline) discardPipeline();
+      if (full) {
+        const line = store.line[store.count - 1];
+        issues.add(
+          'unsorted',
+          `${rowLabel(line)}: the file is not sorted by ${has.frame ? 'frame' : 'time'} and is too large to reorder in memory (more than ${s.maxReorderRows.toLocaleString('en-US')} rows). Sort it by ${has.frame ? 'frame' : 'time'} (then track) and upload it again.`,
+          line,
+        );
+        failed = true;
+      }
+      return;
+    }
+    // Sorted so far: stream straight into the pipeline (started once the frame rate is known).
+    if (!pipeline) {
+      if (!startPipeline(store, full) || failed) return;
+      if (!feed(store, null, 0, store.count)) return void (failed = true);
+    } else if (!feed(store, null, from, store.count)) return void (failed = true);
+    if (full) {
+      store = null;
+      if (take < n && !feed(clean, null, take, n)) failed = true;
     }
   }
 
-  function startPipeline(st: RowStore): void {
+  function discardPipeline(): void {
+    pipeline = null;
+    stats = null;
+    issues.clear(PIPELINE_ISSUES);
+  }
+
+  /** Median time step within tracks over the first 20,000 steps; `steps` = how many were found. */
+  function estimateFrameRate(st: RowColumns): { fps: number; steps: number } {
+    const steps: number[] = [];
+    const lastT = new Map<number, [number, number]>();
+    for (let i = 0; i < st.count && steps.length < 20000; i++) {
+      const tr = st.track[i], f = st.key[i], t = st.t[i];
+      const p = lastT.get(tr);
+      if (p) {
+        const df = has.frame ? f - p[1] : 1;
+        if (t > p[0] && df > 0) steps.push((t - p[0]) / df);
+      }
+      lastT.set(tr, [t, f]);
+    }
+    const med = quantileSorted(Float64Array.from(steps).sort(), 0.5);
+    return { fps: med > 0 ? Number((1 / med).toPrecision(6)) : NaN, steps: steps.length };
+  }
+
+  /** Starts the pipeline once the frame rate is known; with `final`, estimates it from whatever is stored. */
+  function startPipeline(st: RowColumns, final: boolean): boolean {
     if (s.fps !== null) fps = s.fps;
     else {
-      // Estimate the frame rate from time steps within tracks (median, robust to gaps).
-      const steps: number[] = [];
-      const lastT = new Map<number, [number, number]>();
-      for (let i = 0; i < st.count && steps.length < 20000; i++) {
-        const tr = st.cols[0][i], f = st.cols[1][i], t = st.cols[2][i];
-        const p = lastT.get(tr);
-        if (p) {
-          const df = has.frame ? f - p[1] : 1;
-          if (t > p[0] && df > 0) steps.push((t - p[0]) / df);
-        }
-        lastT.set(tr, [t, f]);
-      }
-      const med = quantileSorted(Float64Array.from(steps).sort(), 0.5);
-      if (!(med > 0)) {
+      const est = estimateFrameRate(st);
+      if (est.steps < 20000 && !final) return false;
+      if (!(est.fps > 0)) {
         issues.add('missing-frame-rate', 'The frame rate could not be worked out from the time column (no track has two successive times): give the frame rate.', 1);
         failed = true;
-        return;
+        return true;
       }
-      fps = Number((1 / med).toPrecision(6));
+      fps = est.fps;
     }
     s.fps = fps;
-    stats = new FrameStatistics(s, dims, fps, issues, parser.trackNames);
-    pipeline = new FramePipeline(s, dims, fps, has.vx && has.vy && (dims === 2 || has.vz), has.ax && has.ay && (dims === 2 || has.az), issues, parser.trackNames, (f) => stats!.add(f));
+    stats = new FrameStatistics(s, dims, fps, issues, parser.trackNames, options.createAutocorrelation);
+    const st2 = stats;
+    pipeline = new FramePipeline(s, dims, fps, has.vx && has.vy && (dims === 2 || has.vz), has.ax && has.ay && (dims === 2 || has.az), issues, parser.trackNames, (f) => st2.add(f));
+    return true;
   }
 
-  let nonIntegerWarned = false;
-  function feed(r: number[]): boolean {
-    let frame: number;
-    if (has.frame) {
-      frame = r[1];
-      if (!Number.isInteger(frame)) {
-        if (!nonIntegerWarned) nonIntegerWarned = true;
-        issues.add('non-integer-frame', () => `${rowLabel(r[12])}: the frame number ${r[1]} is not a whole number; it is rounded.`, r[12]);
-        frame = Math.round(frame);
-      }
-    } else frame = Math.round(r[2] * fps);
-    const ok = pipeline!.push(r[0], frame, r[3], r[4], dims === 3 ? r[5] : 0, r[6], r[7], dims === 3 ? r[8] : 0, r[9], r[10], dims === 3 ? r[11] : 0, r[12]);
-    if (!ok)
-      issues.add(
-        'unsorted',
-        `${rowLabel(r[12])}: frame ${frame} comes after a later frame: the file is not sorted by ${has.frame ? 'frame' : 'time'}, and files of more than ${s.maxReorderRows.toLocaleString('en-US')} rows must be. Sort it by ${has.frame ? 'frame' : 'time'} (then track) and upload it again.`,
-        r[12],
-      );
-    return ok;
+  /** Feeds rows [from, to) of `c` (through `order` if given) to the pipeline; false if one is out of frame order. */
+  function feed(c: RowColumns, order: Uint32Array | null, from: number, to: number): boolean {
+    if (frames.length < to - from) frames = new Float64Array(Math.max(to - from, 2 * frames.length));
+    for (let k = from; k < to; k++) {
+      const i = order ? order[k] : k;
+      let frame = c.key[i];
+      if (has.frame) {
+        if (!Number.isInteger(frame)) {
+          const line = c.line[i], raw = frame;
+          issues.add('non-integer-frame', () => `${rowLabel(line)}: the frame number ${raw} is not a whole number; it is rounded.`, line);
+          frame = Math.round(frame);
+        }
+      } else frame = Math.round(frame * fps);
+      frames[k - from] = frame;
+    }
+    const bad = pipeline!.pushRows(c, frames, order, from, to);
+    if (bad < 0) return true;
+    const line = c.line[order ? order[bad] : bad];
+    issues.add(
+      'unsorted',
+      `${rowLabel(line)}: frame ${frames[bad - from]} comes after a later frame: the file is not sorted by ${has.frame ? 'frame' : 'time'}, and files of more than ${s.maxReorderRows.toLocaleString('en-US')} rows must be. Sort it by ${has.frame ? 'frame' : 'time'} (then track) and upload it again.`,
+      line,
+    );
+    return false;
   }
 
+  /** End of input with rows still stored: start (sorted) or reorder and replay them. */
   function drainStore(): void {
     const st = store!;
     store = null;
-    startPipeline(st);
+    if (pipeline) return;
+    startPipeline(st, true);
     if (failed) return;
-    const order = new Uint32Array(st.count);
-    for (let i = 0; i < st.count; i++) order[i] = i;
+    let order: Uint32Array | null = null;
     if (!storeSorted) {
-      const key = has.frame ? st.cols[1] : st.cols[2];
-      const tr = st.cols[0];
+      order = new Uint32Array(st.count);
+      for (let i = 0; i < st.count; i++) order[i] = i;
+      const key = st.key;
+      const tr = st.track;
       // Stable sort by (frame, track, file order).
       order.sort((a, b) => key[a] - key[b] || tr[a] - tr[b] || a - b);
     }
-    const r = new Array<number>(13);
-    for (let k = 0; k < st.count; k++) {
-      const i = order[k];
-      for (let c = 0; c < 13; c++) r[c] = st.cols[c][i];
-      if (!feed(r)) {
-        failed = true;
-        return;
-      }
-    }
+    if (!feed(st, order, 0, st.count)) failed = true;
   }
 
   return {
@@ -249,11 +406,25 @@ export function createIngest(options: IngestOptions = {}): Ingest {
       parser.push(chunk);
       if (issues.hasErrors) failed = true;
     },
+    blockLayout() {
+      return failed ? null : parser.blockLayout();
+    },
+    takeLeftover() {
+      return parser.takeLeftover();
+    },
+    pushParsed(block, lines, n) {
+      bytes += n;
+      if (failed || parser.stopped) return;
+      parser.pushParsed(block, lines);
+      if (issues.hasErrors) failed = true;
+    },
     fail(kind, message) {
       issues.add(kind, message, undefined);
       failed = true;
     },
-    end() {
+    completeInput() {
+      if (inputComplete) return;
+      inputComplete = true;
       if (!failed && !parser.stopped) parser.end();
       if (issues.hasErrors) failed = true;
       if (!failed && store) drainStore();
@@ -262,6 +433,9 @@ export function createIngest(options: IngestOptions = {}): Ingest {
         stats!.finish();
       }
       if (issues.hasErrors) failed = true;
+    },
+    end() {
+      this.completeInput();
       const input: InputDescription = {
         name: options.source?.name ?? null,
         compression: options.source?.compression ?? 'none',

@@ -42,7 +42,11 @@ export interface Issue {
   message: string;
   /** First rows concerned (1-based line numbers of the file, header included). */
   rows: number[];
-  /** How many rows (or occurrences) are concerned in total. */
+  /**
+   * How many rows (or occurrences) are concerned in total. For errors this counts the rows read until the
+   * ingest stopped: reading ends after the block of text (about 1 MiB) in which the first error occurs (or after
+   * maxErrorRows error rows), so an error's count covers that block, not the rest of the file.
+   */
   count: number;
   /** Column concerned, as named in the file, when there is one. */
   column?: string;

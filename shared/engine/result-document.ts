@@ -41,7 +41,7 @@ export interface ResultDocument {
     lineEnding: 'LF' | 'CRLF' | null;
     mapping: Partial<Record<StandardColumn, string>>;
   };
-  parameters: EngineSettings & { dims: 2 | 3; fps: number | null; kernelHalfLength: number | null; metresPerUnit: number };
+  parameters: EngineSettings & { dims: 2 | 3; fps: number | null; kernelHalfLength: number | null; identitySwapDistance: number | null; metresPerUnit: number };
   validation: { ok: boolean; errors: Issue[]; warnings: Issue[] };
   summary: (Summary['scalars'] & {
     tracks: number;
@@ -140,6 +140,7 @@ export function buildResultDocument(p: {
       dims: p.dims,
       fps: Number.isFinite(p.fps) ? p.fps : s.fps,
       kernelHalfLength: s.kernelHalfLength ?? Math.ceil(3 * s.kernelWidth),
+      identitySwapDistance: stats?.resolvedSwapDistance ?? s.identitySwapDistance,
       metresPerUnit: s.units === 'px' ? (s.pixelScale ?? NaN) : { m: 1, cm: 0.01, mm: 0.001 }[s.units],
     },
     validation: { ok: errors.length === 0, errors, warnings },

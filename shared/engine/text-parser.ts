@@ -157,6 +157,50 @@ export class DelimitedTextParser {
     return this.layout;
   }
 
+  /** Layout for {@link parseDataBlock}; null before the header or for space-separated files. */
+  blockLayout(): BlockLayout | null {
+    if (!this.layout || this.delim === 32 || this.stopped) return null;
+    const columns = NUMERIC.filter((k) => this.layout!.columns[k] !== undefined);
+    const columnIndex = Int32Array.from(this.actions, (a) => (a > 0 ? columns.indexOf(NUMERIC[a - 1]) : -1));
+    return { delimiter: this.delim, decimalComma: this.decimalComma, fieldCount: this.layout.fieldCount, actions: this.actions.slice(), columns, columnIndex };
+  }
+
+  /** Hands over the bytes after the last line break (the caller then feeds whole lines only). */
+  takeLeftover(): Uint8Array {
+    const l = this.leftover;
+    this.leftover = new Uint8Array(0);
+    return l;
+  }
+
+  /**
+   * Accepts the rows of a block of whole lines parsed by {@link parseDataBlock} (e.g. in a worker), in file
+   * order: numbers the lines and maps the track ids exactly as {@link push} would have.
+   */
+  pushParsed(p: ParsedBlock, lines: number): void {
+    if (this.stopped || p.count === 0) return;
+    const n = p.count;
+    const track = new Int32Array(n);
+    const line = new Int32Array(n);
+    for (let k = 0; k < n; k++) {
+      const v = p.trackIds[k];
+      if (v >= this.smallIds.length) {
+        const grown = new Int32Array(Math.max(v + 1, this.smallIds.length * 2));
+        grown.set(this.smallIds);
+        this.smallIds = grown;
+      }
+      let t = this.smallIds[v];
+      if (t === 0) {
+        t = this.newTrack(String(v)) + 1;
+        this.smallIds[v] = t;
+      }
+      track[k] = t - 1;
+      line[k] = this.lineNo + 1 + k;
+    }
+    this.lineNo += lines;
+    this.dataRows += n;
+    this.opts.onRows({ count: n, track, line, values: p.values });
+  }
+
   /** Feeds the next chunk of bytes. */
   push(chunk: Uint8Array): void {
     if (this.stopped || chunk.length === 0) return;
@@ -345,7 +389,8 @@ export class DelimitedTextParser {
       this.stopped = true;
       return false;
     }
-    this.ensureCapacity(1024);
+    // Batches of 16k rows: few callbacks, columns still small enough for the cache.
+    this.ensureCapacity(1 << 14);
     return hasHeader;
   }
 
@@ -389,7 +434,17 @@ export class DelimitedTextParser {
   private parseRange(b: Uint8Array, from: number, to: number): void {
     const issues = this.opts.issues;
     let ls = from;
+    let fast = this.layout !== null && this.delim !== 32;
     while (ls < to && !this.stopped) {
+      if (fast) {
+        if (this.batch.count >= this.cap) this.flush();
+        const next = this.parseLineFast(b, ls, to);
+        if (next >= 0) {
+          ls = next;
+          continue;
+        }
+        if (this.stopped) return;
+      }
       let le = b.indexOf(10, ls);
       if (le < 0 || le >= to) le = to;
       const next = le + 1;
@@ -412,6 +467,7 @@ export class DelimitedTextParser {
       if (!this.layout) {
         const isHeader = this.handleHeaderLine(b, ls, e);
         if (this.stopped) return;
+        fast = this.delim !== 32;
         if (this.layout) (this.layout as FileLayout).lineEnding = this.crlf === null ? null : this.crlf ? 'CRLF' : 'LF';
         if (isHeader) {
           ls = next;
@@ -425,6 +481,89 @@ export class DelimitedTextParser {
       this.parseLine(b, ls, e);
       ls = next;
     }
+  }
+
+  /**
+   * Fast path for the common line: unquoted plain decimals (≤ 15 digits, no exponent), a small non-negative
+   * integer track id, exactly the header's field count. Parses the line at `s` (ending before `to`) and returns
+   * the start of the next line, or −1 when the line needs the general path (which then parses it from scratch).
+   * Values are exact: mantissa < 2^53 divided by a power of ten ≤ 10^22 is correctly rounded (Clinger, PLDI 1990).
+   */
+  private parseLineFast(b: Uint8Array, s: number, to: number): number {
+    const k = this.batch.count;
+    const actions = this.actions;
+    const nActions = actions.length;
+    const delim = this.delim;
+    const comma = this.decimalComma ? 44 : -1;
+    const cols = this.cols;
+    let i = s;
+    let field = 0;
+    let track = -1;
+    let c = 0;
+    // Hot loop: one pass over the bytes of the line, numbers accumulated as they are scanned.
+    for (;;) {
+      let neg = false;
+      if (b[i] === 45) {
+        neg = true;
+        i++;
+      }
+      let mant = 0, digits = 0, frac = 0;
+      for (; i < to; i++) {
+        c = b[i] - 48;
+        if (c < 0 || c > 9) break;
+        mant = mant * 10 + c;
+        digits++;
+      }
+      c = i < to ? b[i] : 10;
+      if (c === 46 || c === comma) {
+        for (i++; i < to; i++) {
+          c = b[i] - 48;
+          if (c < 0 || c > 9) break;
+          mant = mant * 10 + c;
+          digits++;
+          frac++;
+        }
+        c = i < to ? b[i] : 10;
+      }
+      if (digits === 0 || digits > 15) return -1;
+      const action = field < nActions ? actions[field] : -1;
+      if (action === 0) {
+        if (neg || frac > 0 || mant >= this.smallIds.length) return -1;
+        const known = this.smallIds[mant];
+        if (known > 0) track = known - 1;
+        else {
+          track = this.newTrack(String(mant));
+          this.smallIds[mant] = track + 1;
+        }
+      } else if (action > 0) {
+        const v = frac === 0 ? mant : mant / POW10[frac];
+        cols[action - 1][k] = neg ? -v : v;
+      }
+      field++;
+      if (c === delim) {
+        i++;
+        continue;
+      }
+      break;
+    }
+    // End of line: LF, CRLF, or the end of the range (last line of the input).
+    let next: number;
+    if (c === 10) next = i + 1;
+    else if (c === 13 && i + 1 < to && b[i + 1] === 10) next = i + 2;
+    else return -1;
+    if (field !== this.layout!.fieldCount || track < 0) return -1;
+    if (i >= to) {
+      // A line without a line break ends the input: only the general path knows (end()).
+      return -1;
+    }
+    if (this.crlf === null) this.crlf = c === 13;
+    if (this.opts.issues.errorRows >= this.opts.maxErrorRows) return -1;
+    this.lineNo++;
+    this.dataRows++;
+    this.batch.track[k] = track;
+    this.batch.line[k] = this.lineNo;
+    this.batch.count = k + 1;
+    return next;
   }
 
   private parseLine(b: Uint8Array, s: number, e: number): void {
@@ -522,4 +661,119 @@ function concat(a: Uint8Array, b: Uint8Array): Uint8Array {
   out.set(a, 0);
   out.set(b, a.length);
   return out;
+}
+
+/** What {@link parseDataBlock} needs of the file's layout (plain data, sent to a worker). */
+export interface BlockLayout {
+  delimiter: number;
+  decimalComma: boolean;
+  fieldCount: number;
+  /** Per field: −1 unused, 0 track id, k > 0 numeric column NUMERIC[k − 1]. */
+  actions: Int8Array;
+  /** Numeric columns present (names of NUMERIC), in order. */
+  columns: string[];
+  /** Per field: index into `columns`, or −1. */
+  columnIndex: Int32Array;
+}
+
+/** Rows of a block parsed by {@link parseDataBlock}: raw integer track ids and one column per mapped value. */
+export interface ParsedBlock {
+  count: number;
+  trackIds: Int32Array;
+  values: Partial<Record<Exclude<StandardColumn, 'track_id'>, Float64Array>>;
+}
+
+/**
+ * Parses a block of whole lines (bytes [start, end), the last ending in a
+ * line break) when every line is a plain data line: unquoted decimals with at
+ * most 15 digits and no exponent, a non-negative integer track id below
+ * 4,194,304, exactly `fieldCount` fields, no blank or comment line. Returns
+ * null otherwise (the caller parses the block with {@link DelimitedTextParser},
+ * which reports every problem with its row). Values are exactly those of the
+ * parser (Clinger's fast path, PLDI 1990). Pure and self-contained (no
+ * reference outside its arguments and built-ins): a worker runs its source
+ * text (server/ingest/parse-offload.ts).
+ */
+export function parseDataBlock(b: Uint8Array, start: number, end: number, layout: BlockLayout): ParsedBlock | null {
+  const { actions, fieldCount } = layout;
+  const nActions = actions.length;
+  const delim = layout.delimiter;
+  const comma = layout.decimalComma ? 44 : -1;
+  const pow10 = [1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15];
+  // Exact capacity: one row per line break (the block ends with one).
+  let cap = 1;
+  for (let p = b.indexOf(10, start); p >= 0 && p < end; p = b.indexOf(10, p + 1)) cap++;
+  let trackIds = new Int32Array(cap);
+  let cols = layout.columns.map(() => new Float64Array(cap));
+  const colOf = layout.columnIndex;
+  let k = 0;
+  let i = start;
+  while (i < end) {
+    if (k === cap) {
+      cap *= 2;
+      const t = new Int32Array(cap);
+      t.set(trackIds);
+      trackIds = t;
+      cols = cols.map((c) => {
+        const g = new Float64Array(cap);
+        g.set(c);
+        return g;
+      });
+    }
+    let field = 0;
+    let track = -1;
+    let c = 0;
+    // Hot loop: one pass over the bytes of a line, numbers accumulated as they are scanned.
+    for (;;) {
+      let neg = false;
+      if (b[i] === 45) {
+        neg = true;
+        i++;
+      }
+      let mant = 0, digits = 0, frac = 0;
+      for (; i < end; i++) {
+        c = b[i] - 48;
+        if (c < 0 || c > 9) break;
+        mant = mant * 10 + c;
+        digits++;
+      }
+      c = i < end ? b[i] : -1;
+      if (c === 46 || c === comma) {
+        for (i++; i < end; i++) {
+          c = b[i] - 48;
+          if (c < 0 || c > 9) break;
+          mant = mant * 10 + c;
+          digits++;
+          frac++;
+        }
+        c = i < end ? b[i] : -1;
+      }
+      if (digits === 0 || digits > 15) return null;
+      const action = field < nActions ? actions[field] : -1;
+      if (action === 0) {
+        if (neg || frac > 0 || mant >= 4194304) return null;
+        track = mant;
+      } else if (action > 0) {
+        const v = frac === 0 ? mant : mant / pow10[frac];
+        cols[colOf[field]][k] = neg ? -v : v;
+      }
+      field++;
+      if (c === delim) {
+        i++;
+        continue;
+      }
+      break;
+    }
+    if (c === 10) i++;
+    else if (c === 13 && i + 1 < end && b[i + 1] === 10) i += 2;
+    else return null;
+    if (field !== fieldCount || track < 0) return null;
+    trackIds[k] = track;
+    k++;
+  }
+  const values: ParsedBlock['values'] = {};
+  layout.columns.forEach((name, j) => {
+    values[name as Exclude<StandardColumn, 'track_id'>] = cols[j].subarray(0, k);
+  });
+  return { count: k, trackIds: trackIds.subarray(0, k), values };
 }

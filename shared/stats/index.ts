@@ -13,7 +13,7 @@ export { randomHeadingPolarization } from './random-heading-polarization';
 export { milling } from './milling';
 export { buildCellGrid, type CellGrid } from './cell-grid';
 export { nearestNeighbourDistances, type NearestNeighbourOptions, type NeighbourMethod } from './nearest-neighbour-distances';
-export { pairsWithinDistance, type ClosePairs } from './pairs-within-distance';
+export { nearestNeighboursAndPairs, pairsWithinDistance, PairList, SweepOrder, type ClosePairs } from './pairs-within-distance';
 export { idealGasNearestNeighbourDistance } from './ideal-gas-nearest-neighbour-distance';
 export { radialAccelerations } from './radial-accelerations';
 export { springConstantFit, type SpringConstantFit } from './spring-constant-fit';

@@ -4,6 +4,11 @@ export interface MomentAccumulator {
   add(value: number): void;
   /** Merges another accumulator into this one (parallel formula). */
   merge(other: MomentAccumulator): void;
+  /**
+   * Adds values[0..count) (non-finite skipped) as one group: two-pass central moments of the group, then the
+   * parallel merge — a few flops per value instead of a full update, and no less accurate.
+   */
+  addBatch(values: ArrayLike<number>, count: number): void;
   readonly count: number;
   readonly mean: number;
   /** Sums of powers of deviations from the mean (M2, M3, M4). */
@@ -30,6 +35,35 @@ export function createMomentAccumulator(): MomentAccumulator {
   let m2 = 0;
   let m3 = 0;
   let m4 = 0;
+  const mergeRaw = (nb: number, meanb: number, m2b: number, m3b: number, m4b: number): void => {
+    if (nb === 0) return;
+    if (n === 0) {
+      n = nb;
+      mean = meanb;
+      m2 = m2b;
+      m3 = m3b;
+      m4 = m4b;
+      return;
+    }
+    const na = n;
+    const nx = na + nb;
+    const delta = meanb - mean;
+    const d2 = delta * delta;
+    const d3 = d2 * delta;
+    const d4 = d2 * d2;
+    const newM4 =
+      m4 + m4b + (d4 * na * nb * (na * na - na * nb + nb * nb)) / (nx * nx * nx) +
+      (6 * d2 * (na * na * m2b + nb * nb * m2)) / (nx * nx) +
+      (4 * delta * (na * m3b - nb * m3)) / nx;
+    const newM3 =
+      m3 + m3b + (d3 * na * nb * (na - nb)) / (nx * nx) + (3 * delta * (na * m2b - nb * m2)) / nx;
+    const newM2 = m2 + m2b + (d2 * na * nb) / nx;
+    mean += (delta * nb) / nx;
+    n = nx;
+    m2 = newM2;
+    m3 = newM3;
+    m4 = newM4;
+  };
   const acc: MomentAccumulator = {
     add(value: number): void {
       if (!Number.isFinite(value)) return;
@@ -45,34 +79,37 @@ export function createMomentAccumulator(): MomentAccumulator {
       m2 += term1;
     },
     merge(other: MomentAccumulator): void {
-      const nb = other.count;
-      if (nb === 0) return;
-      if (n === 0) {
-        n = nb;
-        mean = other.mean;
-        m2 = other.m2;
-        m3 = other.m3;
-        m4 = other.m4;
-        return;
+      mergeRaw(other.count, other.mean, other.m2, other.m3, other.m4);
+    },
+    addBatch(values: ArrayLike<number>, count: number): void {
+      let k = 0, sum = 0;
+      for (let i = 0; i < count; i++) {
+        const v = values[i];
+        if (v - v === 0) {
+          sum += v;
+          k++;
+        }
       }
-      const na = n;
-      const nx = na + nb;
-      const delta = other.mean - mean;
-      const d2 = delta * delta;
-      const d3 = d2 * delta;
-      const d4 = d2 * d2;
-      const newM4 =
-        m4 + other.m4 + (d4 * na * nb * (na * na - na * nb + nb * nb)) / (nx * nx * nx) +
-        (6 * d2 * (na * na * other.m2 + nb * nb * m2)) / (nx * nx) +
-        (4 * delta * (na * other.m3 - nb * m3)) / nx;
-      const newM3 =
-        m3 + other.m3 + (d3 * na * nb * (na - nb)) / (nx * nx) + (3 * delta * (na * other.m2 - nb * m2)) / nx;
-      const newM2 = m2 + other.m2 + (d2 * na * nb) / nx;
-      mean += (delta * nb) / nx;
-      n = nx;
-      m2 = newM2;
-      m3 = newM3;
-      m4 = newM4;
+      if (k === 0) return;
+      const mb = sum / k;
+      let b2 = 0, b3 = 0, b4 = 0, corr = 0;
+      for (let i = 0; i < count; i++) {
+        const v = values[i];
+        if (!(v - v === 0)) continue;
+        const d = v - mb;
+        const d2 = d * d;
+        corr += d;
+        b2 += d2;
+        b3 += d2 * d;
+        b4 += d2 * d2;
+      }
+      // Compensate the rounding of the group mean (corrected two-pass algorithm, Chan, Golub & LeVeque 1983).
+      const c = corr / k;
+      const mean2 = mb + c;
+      b4 = b4 - 4 * c * b3 + 6 * c * c * b2 - 3 * k * c ** 4;
+      b3 = b3 - 3 * c * b2 + 2 * k * c ** 3;
+      b2 = b2 - k * c * c;
+      mergeRaw(k, mean2, b2, b3, b4);
     },
     get count() {
       return n;

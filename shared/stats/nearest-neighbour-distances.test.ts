@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { createSeededRandom } from '../engine/seeded-random';
 import { idealGasNearestNeighbourDistance } from './ideal-gas-nearest-neighbour-distance';
 import { nearestNeighbourDistances } from './nearest-neighbour-distances';
-import { pairsWithinDistance } from './pairs-within-distance';
+import { nearestNeighboursAndPairs, pairsWithinDistance, SweepOrder } from './pairs-within-distance';
 import { frameOf } from './test-support';
 
 function uniformCube(n: number, dims: 2 | 3, seed: number) {
@@ -79,5 +79,40 @@ describe('pairsWithinDistance(frame, maxDistance, options?)', () => {
   it('finds nothing in an empty frame or for a non-positive distance', () => {
     expect(pairsWithinDistance(frameOf(3, []), 1).count).toBe(0);
     expect(pairsWithinDistance(frameOf(3, [[0, 0, 0], [0, 0, 0]]), 0).count).toBe(0);
+  });
+});
+
+describe('nearestNeighboursAndPairs(frame, maxDistance, out, neighbour)', () => {
+  it('gives the distances, neighbours and pairs of the separate brute-force functions', () => {
+    // Source: derived (one pass computes the same exact quantities). Includes a NaN position.
+    for (const dims of [3, 2] as const) {
+      const pts = uniformCube(150, dims, 11 + dims);
+      pts[7] = [NaN, 0.5, 0.5];
+      const f = frameOf(dims, pts);
+      const nbA = new Int32Array(150), nbB = new Int32Array(150), out = new Float64Array(150);
+      const d = nearestNeighbourDistances(f, { method: 'brute', neighbour: nbA });
+      const p = pairsWithinDistance(f, 0.08, { method: 'brute' });
+      const q = nearestNeighboursAndPairs(f, 0.08, out, nbB);
+      expect(Array.from(out)).toEqual(Array.from(d));
+      expect(Array.from(nbB)).toEqual(Array.from(nbA));
+      expect([q.count, Array.from(q.a), Array.from(q.b), Array.from(q.distance)]).toEqual([p.count, Array.from(p.a), Array.from(p.b), Array.from(p.distance)]);
+      expect(p.count).toBeGreaterThan(10);
+    }
+  });
+});
+
+describe('pairsWithinDistance(frame, maxDistance, { sweep })', () => {
+  it('lists the same pairs by sort-and-sweep as by brute force, frame after frame', () => {
+    // Source: derived (both exact); the kept x-order is re-sorted on each moving frame.
+    const rnd = createSeededRandom(31);
+    const pts = uniformCube(200, 3, 5);
+    const sweep = new SweepOrder();
+    for (let t = 0; t < 5; t++) {
+      for (const p of pts) for (let a = 0; a < 3; a++) p[a] += 0.01 * rnd.normal();
+      const f = frameOf(3, t === 3 ? pts.slice(0, 150) : pts);
+      const a = pairsWithinDistance(f, 0.06, { method: 'brute' });
+      const b = pairsWithinDistance(f, 0.06, { method: 'sweep', sweep });
+      expect([b.count, Array.from(b.a), Array.from(b.b), Array.from(b.distance)]).toEqual([a.count, Array.from(a.a), Array.from(a.b), Array.from(a.distance)]);
+    }
   });
 });

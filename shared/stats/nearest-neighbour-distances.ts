@@ -6,7 +6,7 @@ export type NeighbourMethod = 'auto' | 'brute' | 'grid';
 export interface NearestNeighbourOptions {
   /** 'auto' (default) uses brute force below `bruteForceBelow` individuals, else the cell list. */
   method?: NeighbourMethod;
-  /** Threshold N for 'auto'; measured crossover on the benchmark machine (see scripts/bench). Default 300 (measured crossover, npm run bench). */
+  /** Threshold N for 'auto': the measured crossover of brute force and cell list on the benchmark machine (npm run bench). Default 260. */
   bruteForceBelow?: number;
   /** Optional output array (length ≥ count) to avoid allocation per frame. */
   out?: Float64Array;
@@ -31,7 +31,7 @@ export function nearestNeighbourDistances(frame: FrameView, options: NearestNeig
   const method = options.method ?? 'auto';
   const out = options.out ? options.out.subarray(0, count) : new Float64Array(count);
   const nb = options.neighbour;
-  const useGrid = method === 'grid' || (method === 'auto' && count >= (options.bruteForceBelow ?? 300));
+  const useGrid = method === 'grid' || (method === 'auto' && count >= (options.bruteForceBelow ?? 260));
   if (useGrid) gridSearch(frame, out, nb);
   else bruteSearch(frame, out, nb);
   return out;
@@ -39,30 +39,34 @@ export function nearestNeighbourDistances(frame: FrameView, options: NearestNeig
 
 function bruteSearch(frame: FrameView, out: Float64Array, nb?: Int32Array): void {
   const { count, dims, x, y, z } = frame;
+  const three = dims === 3;
   out.fill(Infinity);
   if (nb) nb.fill(-1, 0, count);
+  // Hot loop (O(N²)): the row's best is kept in registers; NaN distances fail every comparison.
   for (let i = 0; i < count; i++) {
-    const xi = x[i], yi = y[i], zi = dims === 3 ? z[i] : 0;
+    const xi = x[i], yi = y[i], zi = three ? z[i] : 0;
+    let best = out[i];
+    let bestJ = nb ? nb[i] : -1;
     for (let j = i + 1; j < count; j++) {
-      const dx = x[j] - xi, dy = y[j] - yi, dz = dims === 3 ? z[j] - zi : 0;
+      const dx = x[j] - xi, dy = y[j] - yi, dz = three ? z[j] - zi : 0;
       const d2 = dx * dx + dy * dy + dz * dz;
-      if (!(d2 === d2)) continue;
-      if (d2 < out[i]) {
-        out[i] = d2;
-        if (nb) nb[i] = j;
+      if (d2 < best) {
+        best = d2;
+        bestJ = j;
       }
       if (d2 < out[j]) {
         out[j] = d2;
         if (nb) nb[j] = i;
       }
     }
+    out[i] = best;
+    if (nb) nb[i] = bestJ;
   }
   for (let i = 0; i < count; i++) out[i] = out[i] === Infinity ? NaN : Math.sqrt(out[i]);
 }
 
 function gridSearch(frame: FrameView, out: Float64Array, nb?: Int32Array): void {
   const { count, dims, x, y, z } = frame;
-  // Cell side so that a cell holds about two points on average.
   let minX = Infinity, maxX = -Infinity, minY = Infinity, maxY = -Infinity, minZ = Infinity, maxZ = -Infinity;
   let finite = 0;
   for (let i = 0; i < count; i++) {
@@ -82,7 +86,8 @@ function gridSearch(frame: FrameView, out: Float64Array, nb?: Int32Array): void 
     return;
   }
   // Cell side from the spread (4 sd per axis) rather than the bounding box, so outliers do not coarsen the grid;
-  // about two points per cell of the core.
+  // about a quarter point per cell of the core: small cells mean few distances, and empty cells cost little
+  // because the cells of one x-row are scanned as one range (measured best at N = 2,000, npm run bench).
   let mx = 0, my = 0, mz = 0;
   for (let i = 0; i < count; i++) {
     const zi = dims === 3 ? z[i] : 0;
@@ -104,8 +109,8 @@ function gridSearch(frame: FrameView, out: Float64Array, nb?: Int32Array): void 
   }
   const side = (v: number, lo: number, hi: number) => Math.max(Math.min(4 * Math.sqrt(v / finite), hi - lo), 1e-12);
   const vol = side(vx, minX, maxX) * side(vy, minY, maxY) * (dims === 3 ? side(vz, minZ, maxZ) : 1);
-  const h0 = Math.pow((2 * vol) / finite, 1 / dims);
-  const g = buildCellGrid(frame, h0, 2 * finite + 64);
+  const h0 = Math.pow((0.25 * vol) / finite, 1 / dims);
+  const g = buildCellGrid(frame, h0, 16 * finite + 64);
   const { nx, ny, nz, cellStart, items, cellOf, cellSize: h } = g;
   const maxShell = Math.max(nx, ny, nz);
   for (let i = 0; i < count; i++) {
@@ -142,7 +147,7 @@ function gridSearch(frame: FrameView, out: Float64Array, nb?: Int32Array): void 
               }
             }
           } else {
-            for (const qx of [cx - s, cx + s]) {
+            for (let side = 0, qx = cx - s; side < 2; side++, qx = cx + s) {
               if (qx < 0 || qx >= nx) continue;
               for (let k = cellStart[row + qx], k1 = cellStart[row + qx + 1]; k < k1; k++) {
                 const j = items[k];

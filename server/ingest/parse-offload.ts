@@ -1,0 +1,333 @@
+import { Worker } from 'node:worker_threads';
+import type { Ingest } from '../../shared/engine/ingest';
+import { parseDataBlock, type BlockLayout, type ParsedBlock } from '../../shared/engine/text-parser';
+import { createAutocorrelationAccumulator, type AutocorrelationAccumulator } from '../../shared/stats/index';
+
+/** Text bytes seen before the worker is started (small inputs never start one). */
+export const WORKER_AFTER_BYTES = 1 << 20;
+/** Text bytes parsed in the main thread before blocks go to the worker. */
+export const OFFLOAD_AFTER_BYTES = 4 << 20;
+/** Parse blocks in flight: enough for the worker to parse ahead while the main thread computes; bounds memory. */
+const MAX_IN_FLIGHT = 4;
+/** Autocorrelation batches (64k samples) queued in the worker before the main thread waits. */
+const MAX_ACF_QUEUED = 8;
+const ACF_BATCH = 1 << 16;
+
+interface ParseReply {
+  id: number;
+  /** Parsed rows, or null: the block needs the full parser (then `bytes` come back). */
+  block: ParsedBlock | null;
+  bytes: Uint8Array | null;
+}
+
+interface AcfReply {
+  acfId: number;
+  rho: Float64Array;
+  pairs: Float64Array;
+}
+
+// The worker runs the engine's self-contained functions from their source text: no module loader is needed,
+// so it starts in milliseconds under tsx, vitest or compiled JavaScript alike. (__name: esbuild's keepNames helper.)
+const WORKER_SOURCE = `"use strict";
+const { parentPort, workerData } = require("node:worker_threads");
+const __name = (f) => f;
+const parseDataBlock = ${parseDataBlock.toString()};
+const createAutocorrelationAccumulator = ${createAutocorrelationAccumulator.toString()};
+const queued = new Int32Array(workerData.queued);
+const accs = new Map();
+parentPort.on("message", (m) => {
+  if (m.type === "parse") {
+    const block = parseDataBlock(m.bytes, 0, m.bytes.length, m.layout);
+    const transfer = block ? [block.trackIds.buffer, ...Object.values(block.values).map((v) => v.buffer)] : [m.bytes.buffer];
+    parentPort.postMessage({ id: m.id, block, bytes: block ? null : m.bytes }, transfer);
+  } else if (m.type === "acf-init") accs.set(m.id, createAutocorrelationAccumulator(m.maxLag, m.stride));
+  else if (m.type === "acf") {
+    const a = accs.get(m.id);
+    for (let s = 0; s < m.n; ) {
+      let e = s + 1;
+      while (e < m.n && m.frame[e] === m.frame[s]) e++;
+      a.addFrame(m.frame[s], m.track.subarray(s, e), m.vx.subarray(s, e), m.vy.subarray(s, e), m.vz.subarray(s, e), e - s);
+      s = e;
+    }
+    Atomics.sub(queued, 0, 1);
+    Atomics.notify(queued, 0);
+  } else if (m.type === "acf-evict") accs.get(m.id).evictBefore(m.frame);
+  else if (m.type === "acf-result") {
+    const r = accs.get(m.id).result();
+    accs.delete(m.id);
+    parentPort.postMessage({ acfId: m.id, rho: r.rho, pairs: r.pairs });
+  }
+});
+parentPort.postMessage({ ready: true });
+`;
+
+/**
+ * Feeds an ingest with text chunks and lends it a worker thread once the
+ * input has proven large (≥ 1 MiB):
+ * - parsing (plain text, from 4 MiB on): whole-line blocks become columns in
+ *   the worker (`parseDataBlock`), delivered in file order; a block the fast
+ *   parser declines (quotes, exponents, blank lines, problems) is parsed again
+ *   here by the full parser, so results and messages are unchanged;
+ * - the velocity autocorrelation (both plain and gzip): the samples are
+ *   batched to the worker, which runs the same accumulator; its result is
+ *   fetched before the ingest ends.
+ * Validation, kinematics and the other statistics stay in the main thread (one sequential stream).
+ */
+export class ParseOffload {
+  private worker: Worker | null = null;
+  private ready = false;
+  private broken: Error | null = null;
+  private active = false;
+  private seen = 0;
+  private carry: Uint8Array = new Uint8Array(0);
+  private nextId = 0;
+  private readonly waiting = new Map<number, { resolve: (r: ParseReply) => void; reject: (e: Error) => void }>();
+  private readonly acfWaiting = new Map<number, { resolve: (r: AcfReply) => void; reject: (e: Error) => void }>();
+  /** Blocks in file order: parsed by the worker (reply) or, when the worker is behind, here at delivery (local). */
+  private readonly queue: { reply: Promise<ParseReply> | null; local: Uint8Array | null; bytes: number; done: boolean }[] = [];
+  private readyWait: Promise<void> | null = null;
+  private onReady = () => {};
+  private remote: RemoteAutocorrelation | null = null;
+  private acceptRemote = true;
+  /** Autocorrelation batches queued in the worker (shared counter: the worker decrements it). */
+  readonly acfQueued = new Int32Array(new SharedArrayBuffer(4));
+
+  /**
+   * `parse`: true = parse in the worker after OFFLOAD_AFTER_BYTES, false = never, 'always' = from the first chunk,
+   * waiting for the worker (tests). `autocorrelation`: compute it in the worker when one is running.
+   */
+  constructor(
+    private readonly ingest: Ingest,
+    private readonly parse: boolean | 'always' = true,
+    private readonly autocorrelation = true,
+  ) {}
+
+  /** Factory for IngestOptions.createAutocorrelation: in the worker when one runs, else in this thread. */
+  createAutocorrelation(maxLag: number, originStride: number): AutocorrelationAccumulator {
+    if (!this.autocorrelation || !this.worker || this.broken || !this.acceptRemote) return createAutocorrelationAccumulator(maxLag, originStride);
+    this.remote = new RemoteAutocorrelation(this, this.nextId++, maxLag, originStride);
+    return this.remote;
+  }
+
+  /** Feeds the next chunk of text. */
+  async push(chunk: Uint8Array): Promise<void> {
+    this.seen += chunk.length;
+    if (!this.active) {
+      const wanted = this.parse === 'always' || (this.seen >= WORKER_AFTER_BYTES && (this.parse || this.autocorrelation));
+      if (wanted && !this.worker && !this.broken && !this.ingest.stopped) this.start();
+      this.ingest.push(chunk);
+      if (!this.parse || this.ingest.stopped) return;
+      if (this.worker && !this.ready) {
+        // Let the worker's "ready" message in (a stream of resolved promises would starve the event loop).
+        if (this.parse === 'always') await this.readyWait;
+        else await new Promise((r) => setImmediate(r));
+      }
+      const due = this.parse === 'always' || this.seen >= OFFLOAD_AFTER_BYTES;
+      if (due && this.ready && !this.broken && this.ingest.blockLayout()) {
+        this.active = true;
+        this.carry = this.ingest.takeLeftover();
+      }
+      return;
+    }
+    const last = chunk.lastIndexOf(10);
+    if (last < 0) {
+      this.carry = concat(this.carry, chunk);
+      return;
+    }
+    const block = concat(this.carry, chunk.subarray(0, last + 1));
+    this.carry = chunk.slice(last + 1);
+    this.send(block);
+    while (this.queue.length >= MAX_IN_FLIGHT && !this.ingest.stopped) await this.deliverOldest();
+  }
+
+  /** Delivers everything in flight and the last partial line, ends the input, fetches the worker's autocorrelation; then call ingest.end(). */
+  async finish(): Promise<void> {
+    while (this.queue.length > 0) await this.deliverOldest();
+    if (this.carry.length > 0) this.ingest.push(this.carry);
+    this.carry = new Uint8Array(0);
+    // Statistics started from now on (a reorder at the end) compute their autocorrelation here; the last
+    // frames go through before the worker's result is fetched.
+    this.acceptRemote = false;
+    this.ingest.completeInput();
+    if (this.remote) await this.remote.fetch();
+  }
+
+  close(): void {
+    this.queue.length = 0;
+    void this.worker?.terminate();
+    this.worker = null;
+  }
+
+  /** @internal Posts a message to the worker (RemoteAutocorrelation). */
+  post(message: unknown, transfer: ArrayBuffer[] = []): void {
+    if (this.broken) throw this.broken;
+    this.worker!.postMessage(message, transfer);
+  }
+
+  /** @internal Waits until at most `limit` autocorrelation batches are queued in the worker. */
+  throttle(limit: number): void {
+    for (let q = Atomics.load(this.acfQueued, 0); q > limit; q = Atomics.load(this.acfQueued, 0)) {
+      // Blocking wait (allowed in Node's main thread): the worker notifies after each batch.
+      Atomics.wait(this.acfQueued, 0, q, 1000);
+      if (this.broken) throw this.broken;
+    }
+  }
+
+  /** @internal Asks the worker for the result of accumulator `id`. */
+  requestAcf(id: number): Promise<AcfReply> {
+    return new Promise<AcfReply>((resolve, reject) => {
+      if (this.broken) return reject(this.broken);
+      this.acfWaiting.set(id, { resolve, reject });
+      this.post({ type: 'acf-result', id });
+    });
+  }
+
+  private start(): void {
+    try {
+      const w = new Worker(WORKER_SOURCE, { eval: true, workerData: { queued: this.acfQueued.buffer } });
+      this.readyWait = new Promise<void>((r) => (this.onReady = r));
+      w.on('message', (m: ParseReply | AcfReply | { ready: true }) => {
+        if ('ready' in m) {
+          this.ready = true;
+          this.onReady();
+        } else if ('acfId' in m) {
+          this.acfWaiting.get(m.acfId)?.resolve(m);
+          this.acfWaiting.delete(m.acfId);
+        } else {
+          this.waiting.get(m.id)?.resolve(m);
+          this.waiting.delete(m.id);
+        }
+      });
+      w.on('error', (e) => this.fail(e));
+      w.on('exit', (code) => {
+        if (this.worker) this.fail(new Error(`ingest worker exited (${code})`));
+      });
+      this.worker = w;
+    } catch (e) {
+      // No worker thread available: everything stays in this thread.
+      this.broken = e as Error;
+    }
+  }
+
+  private fail(e: Error): void {
+    this.broken = e;
+    this.ready = true;
+    this.onReady();
+    for (const w of [...this.waiting.values(), ...this.acfWaiting.values()]) w.reject(e);
+    this.waiting.clear();
+    this.acfWaiting.clear();
+  }
+
+  private send(bytes: Uint8Array): void {
+    // Worker behind (two blocks still unparsed, as when the main thread has little else to do): this block
+    // is parsed here at its turn, so both threads parse.
+    let pending = 0;
+    for (const q of this.queue) if (q.reply && !q.done) pending++;
+    if (pending >= 2) {
+      this.queue.push({ reply: null, local: bytes, bytes: bytes.length, done: true });
+      return;
+    }
+    const id = this.nextId++;
+    const item: (typeof this.queue)[number] = { reply: null, local: null, bytes: bytes.length, done: false };
+    item.reply = new Promise<ParseReply>((resolve, reject) => {
+      if (this.broken) return reject(this.broken);
+      this.waiting.set(id, {
+        resolve: (r) => {
+          item.done = true;
+          resolve(r);
+        },
+        reject,
+      });
+    });
+    // Transferred, not copied: the worker hands the bytes back if the block needs the full parser.
+    if (!this.broken) this.worker!.postMessage({ type: 'parse', id, bytes, layout: this.ingest.blockLayout() ?? FALLBACK_LAYOUT }, [bytes.buffer as ArrayBuffer]);
+    this.queue.push(item);
+  }
+
+  private async deliverOldest(): Promise<void> {
+    const item = this.queue.shift()!;
+    if (item.local) return this.ingest.push(item.local);
+    const r = await item.reply!;
+    if (r.block) this.ingest.pushParsed(r.block, r.block.count, item.bytes);
+    else this.ingest.push(r.bytes!);
+  }
+}
+
+/**
+ * Velocity-autocorrelation accumulator computed in the worker: samples are
+ * batched (64k) and sent in order, evictions forwarded; result() is
+ * available after fetch(). Same estimator, same numbers as in this thread.
+ */
+class RemoteAutocorrelation implements AutocorrelationAccumulator {
+  private n = 0;
+  private frame = new Float64Array(ACF_BATCH);
+  private track = new Int32Array(ACF_BATCH);
+  private vx = new Float64Array(ACF_BATCH);
+  private vy = new Float64Array(ACF_BATCH);
+  private vz = new Float64Array(ACF_BATCH);
+  private cached: { rho: Float64Array; pairs: Float64Array } | null = null;
+
+  constructor(private readonly link: ParseOffload, private readonly id: number, maxLag: number, originStride: number) {
+    link.post({ type: 'acf-init', id, maxLag, stride: originStride });
+  }
+
+  add(track: number, frame: number, vx: number, vy: number, vz: number): void {
+    this.addFrame(frame, [track], [vx], [vy], [vz], 1);
+  }
+
+  addFrame(frame: number, track: ArrayLike<number>, vx: ArrayLike<number>, vy: ArrayLike<number>, vz: ArrayLike<number>, count: number): void {
+    for (let i = 0; i < count; i++) {
+      if (this.n === ACF_BATCH) this.flush();
+      const k = this.n++;
+      this.frame[k] = frame;
+      this.track[k] = track[i];
+      this.vx[k] = vx[i];
+      this.vy[k] = vy[i];
+      this.vz[k] = vz[i];
+    }
+  }
+
+  evictBefore(frame: number): void {
+    this.flush();
+    this.link.post({ type: 'acf-evict', id: this.id, frame });
+  }
+
+  async fetch(): Promise<void> {
+    this.flush();
+    const r = await this.link.requestAcf(this.id);
+    this.cached = { rho: r.rho, pairs: r.pairs };
+  }
+
+  result(): { rho: Float64Array; pairs: Float64Array } {
+    if (!this.cached) throw new Error('the autocorrelation computed in the worker was not fetched before the end');
+    return { rho: this.cached.rho.slice(), pairs: this.cached.pairs.slice() };
+  }
+
+  get activeTracks(): number {
+    return NaN;
+  }
+
+  private flush(): void {
+    if (this.n === 0) return;
+    this.link.throttle(MAX_ACF_QUEUED);
+    Atomics.add(this.link.acfQueued, 0, 1);
+    const msg = { type: 'acf', id: this.id, n: this.n, frame: this.frame, track: this.track, vx: this.vx, vy: this.vy, vz: this.vz };
+    this.link.post(msg, [this.frame.buffer, this.track.buffer, this.vx.buffer, this.vy.buffer, this.vz.buffer] as ArrayBuffer[]);
+    this.n = 0;
+    this.frame = new Float64Array(ACF_BATCH);
+    this.track = new Int32Array(ACF_BATCH);
+    this.vx = new Float64Array(ACF_BATCH);
+    this.vy = new Float64Array(ACF_BATCH);
+    this.vz = new Float64Array(ACF_BATCH);
+  }
+}
+
+// Declines every block (the ingest stopped meanwhile: the bytes are then ignored anyway).
+const FALLBACK_LAYOUT: BlockLayout = { delimiter: 44, decimalComma: false, fieldCount: -1, actions: new Int8Array(0), columns: [], columnIndex: new Int32Array(0) };
+
+function concat(a: Uint8Array, b: Uint8Array): Uint8Array {
+  const out = new Uint8Array(a.length + b.length);
+  out.set(a, 0);
+  out.set(b, a.length);
+  return out;
+}
