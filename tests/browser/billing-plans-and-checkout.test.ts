@@ -51,6 +51,12 @@ describe('browser: storage plans and hosted checkout', () => {
     await page.getByRole('button', { name: 'Add plan' }).click();
     await page.getByText('Plan “Nymph 50 GB” is on offer').waitFor();
     await page.getByRole('button', { name: 'Archive Nymph 50 GB' }).waitFor();
+    // The admin edits a plan in place: a clearer description.
+    await page.getByRole('button', { name: 'Edit Nymph 50 GB' }).click();
+    const editor = page.locator('tr').filter({ has: page.getByRole('button', { name: 'Save changes' }) });
+    await editor.getByLabel('Description').fill('Room for one busy field season of mayfly swarms, with room to spare.');
+    await editor.getByRole('button', { name: 'Save changes' }).click();
+    await page.getByText('with room to spare.').waitFor();
     await snap(page, 'billing-01-admin-plans');
     await page.getByRole('button', { name: 'Sign out' }).click();
 

@@ -3,10 +3,13 @@ import { formatBytes, formatMoney } from '../../../../shared/billing-format';
 import { Badge } from '../../../components/badge';
 import { Button } from '../../../components/button';
 import { useUpdatePlan } from '../api/update-plan';
+import { useState, Fragment } from 'react';
+import { PlanForm } from './plan-form';
 
 /** The whole catalogue for the admin, with archive and restore. */
 export function PlansTable({ plans }: { plans: StoragePlanView[] }) {
   const update = useUpdatePlan();
+  const [editing, setEditing] = useState<string | null>(null);
   return (
     <div className="overflow-x-auto rounded-lg border border-mist bg-white">
       <table className="w-full border-collapse text-sm">
@@ -23,7 +26,8 @@ export function PlansTable({ plans }: { plans: StoragePlanView[] }) {
         </thead>
         <tbody>
           {plans.map((p) => (
-            <tr key={p.id} className="border-b border-mist/70">
+            <Fragment key={p.id}>
+            <tr className="border-b border-mist/70">
               <td className="px-3 py-2">
                 <span className="font-medium">{p.name}</span>
                 {p.description ? <span className="block text-xs text-ink/70">{p.description}</span> : null}
@@ -41,8 +45,19 @@ export function PlansTable({ plans }: { plans: StoragePlanView[] }) {
                 >
                   {p.status === 'active' ? 'Archive' : 'Restore'}
                 </Button>
+                <Button variant="quiet" onClick={() => setEditing(editing === p.id ? null : p.id)} aria-label={`Edit ${p.name}`}>
+                  Edit
+                </Button>
               </td>
             </tr>
+            {editing === p.id ? (
+              <tr className="border-b border-mist/70 bg-paper">
+                <td colSpan={6} className="p-3">
+                  <PlanForm plan={p} onDone={() => setEditing(null)} />
+                </td>
+              </tr>
+            ) : null}
+            </Fragment>
           ))}
         </tbody>
       </table>
