@@ -15,6 +15,9 @@ import { depositingRoutes } from './routes/depositing.routes';
 import { createReleasesService } from './services/releases.service';
 import { doiResolver, releasesRoutes } from './routes/releases.routes';
 import { BUNDLE_JOB, createDownloadsService } from './services/downloads.service';
+import { createAccessService } from './services/access.service';
+import { createAccessRepository } from './repositories/access.repository';
+import { accessRoutes } from './routes/access.routes';
 
 export type DepositingDeps = { config: Config; database: Database; store: ObjectStore; log: Logger; mailer: Pick<Mailer, 'send'>; jobs: JobQueue };
 
@@ -42,7 +45,16 @@ export function createDepositingModule({ config, database, store, log, mailer, j
   });
   const ingest = createIngestJob({ repo, store, uploads, quota, log: log.child({ area: 'ingest' }) });
   const registrar = createHttpRegistrar({ baseUrl: config.identifiers.registryUrl, user: config.identifiers.user, password: config.identifiers.password });
+  const accessService = createAccessService({
+    access: createAccessRepository(database.db),
+    repo,
+    labs: createLabsRepository(database.db),
+    mailer,
+    publicBaseUrl: config.publicBaseUrl,
+    log: log.child({ area: 'access' }),
+  });
   const downloads = createDownloadsService({
+    grants: accessService,
     repo,
     labs: createLabsRepository(database.db),
     uploads,
@@ -61,7 +73,7 @@ export function createDepositingModule({ config, database, store, log, mailer, j
     else log.error({ jobId: row.id, kind: row.kind, err: e }, 'job gave up');
   };
   const releases = createReleasesService({ repo, labs: createLabsRepository(database.db), doiPrefix: config.doiPrefix, publicBaseUrl: config.publicBaseUrl });
-  return { service, releases, downloads, routes: [...depositingRoutes(service), ...releasesRoutes(releases, downloads)], doiResolver: doiResolver(releases), handlers, onFinalFailure };
+  return { service, releases, downloads, access: accessService, routes: [...depositingRoutes(service), ...releasesRoutes(releases, downloads), ...accessRoutes(accessService)], doiResolver: doiResolver(releases), handlers, onFinalFailure };
 }
 
 export type DepositingModule = ReturnType<typeof createDepositingModule>;

@@ -9,10 +9,11 @@ import { openPglite, openPostgres, type Database } from './db/client';
 import { lockDataDir } from './db/data-dir-lock';
 import { createAuth, type Auth } from './auth/create-auth';
 import { createMailer } from './mail/mailer';
+import { createOutbox, SEND_MAIL_JOB } from './mail/outbox';
 import { createObjectStore } from './storage/object-store';
 import { createApp } from './app';
 import type { Route } from './routes/route';
-import { createJobQueue, type JobQueue } from './jobs/job-queue';
+import { createJobQueue, type JobHandler, type JobQueue } from './jobs/job-queue';
 import { createDepositingModule, type DepositingModule } from './depositing-module';
 import { seedDemo, type DemoAccount } from './seed/demo';
 import { seedDemoReleases } from './seed/demo-releases';
@@ -41,6 +42,8 @@ export type Running = {
   routes: Route[];
   jobs: JobQueue;
   depositing: DepositingModule;
+  // Every job kind this process can run (tests drain them by hand).
+  handlers: Record<string, JobHandler>;
   close(): Promise<void>;
 };
 
@@ -94,21 +97,25 @@ export async function startCohesia(opts: StartOptions): Promise<Running> {
     }
 
     await database.migrate();
-    const mailer = createMailer(config.mail.smtpUrl, config.mail.from, log);
-    closers.push(async () => mailer.close());
+    const transport = createMailer(config.mail.smtpUrl, config.mail.from, log);
+    closers.push(async () => transport.close());
     const store = createObjectStore(config.s3);
     closers.push(async () => store.close());
+    const jobs = createJobQueue({ db: database.db, log: log.child({ area: 'jobs' }) });
+    // All mail, better-auth's included, goes through the outbox.
+    const outbox = createOutbox({ db: database.db, jobs, transport, log: log.child({ area: 'outbox' }) });
+    const mailer = { ...transport, send: outbox.mailer.send };
     const auth = createAuth({ db: database.db, config, mailer });
 
     const demoAccounts = config.demoSeed ? await seedDemo({ db: database.db, auth }) : null;
 
     if (config.demoSeed && config.demoReleases) await seedDemoReleases({ config, database, store, log });
-    const jobs = createJobQueue({ db: database.db, log: log.child({ area: 'jobs' }) });
     const depositing = createDepositingModule({ config, database, store, log, mailer, jobs });
+    const handlers = { ...depositing.handlers, [SEND_MAIL_JOB]: outbox.handler };
     if (opts.workers !== false) {
       // One process owns an embedded data folder, so jobs it finds running were cut off by a crash.
       if (database.kind === 'pglite') await jobs.requeueOrphans();
-      jobs.start(depositing.handlers, depositing.onFinalFailure);
+      jobs.start(handlers, (row, e) => (row.kind === SEND_MAIL_JOB ? outbox.onFinalFailure(row, e) : depositing.onFinalFailure(row, e)));
       closers.push(() => jobs.stop());
     }
 
@@ -127,7 +134,7 @@ export async function startCohesia(opts: StartOptions): Promise<Running> {
         }),
     );
     const port = (server.address() as AddressInfo).port;
-    return { url: `http://${config.host}:${port}`, port, auth, database, demoAccounts, routes: app.locals.routes as Route[], jobs, depositing, close };
+    return { url: `http://${config.host}:${port}`, port, auth, database, demoAccounts, routes: app.locals.routes as Route[], jobs, depositing, handlers, close };
   } catch (e) {
     await close();
     throw e;

@@ -25,5 +25,6 @@ export const paths = {
   release: (suffix: string) => `/releases/${suffix}`,
   datasetLanding: (suffix: string) => `/datasets/${suffix}`,
   resolveDoi: (doi: string) => `/doi/${doi}`,
+  labAccessRequests: (slug: string) => `/labs/${encodeURIComponent(slug)}/access-requests`,
   mailbox: '/dev/mailbox',
 } as const;

@@ -16,6 +16,22 @@ function mail(to: string, subject: string, lines: string[], link: { url: string;
 }
 
 export const mailTemplates = {
+  accessRequested: (to: string, requester: string, affiliation: string, title: string, lab: string, purpose: string, url: string) =>
+    mail(to, `Access request: ${title}`, [
+      `${requester} (${affiliation}) asks for access to the files of "${title}" in ${lab}.`,
+      `Stated purpose: ${purpose}`,
+      'A curator of the lab approves or denies it; the requester is told either way. The request holds personal data: handle it under your lab\'s and institution\'s rules.',
+    ], { url, label: 'Decide on the request' }),
+  accessApproved: (to: string, title: string, until: string | null, note: string, url: string) =>
+    mail(to, `Access granted: ${title}`, [
+      `Your request for the files of "${title}" was approved${until ? ` until ${until}` : ''}.`,
+      ...(note ? [`Note from the lab: ${note}`] : []),
+      'Sign in and open the release page to download the files.',
+    ], { url, label: 'Open the release' }),
+  accessDenied: (to: string, title: string, reason: string, url: string) =>
+    mail(to, `Access request declined: ${title}`, [`Your request for the files of "${title}" was declined.`, `Reason given by the lab: ${reason}`], { url, label: 'See your requests' }),
+  accessRevoked: (to: string, title: string, url: string) =>
+    mail(to, `Access withdrawn: ${title}`, [`The lab has withdrawn your access to the files of "${title}".`], { url, label: 'See your requests' }),
   draftSubmitted: (to: string, depositor: string, title: string, lab: string, url: string) =>
     mail(to, `Ready for review: ${title}`, [
       `${depositor} has submitted "${title}" for review in ${lab}.`,

@@ -16,7 +16,9 @@ import { paths } from '../../shared/paths';
 export const BUNDLE_JOB = 'build-bundle';
 const URL_SECONDS = 5 * 60;
 
-type Deps = { repo: DepositingRepository; labs: LabsRepository; uploads: MultipartUploads; store: ObjectStore; doiPrefix: string; publicBaseUrl: string; log: Logger; now?: () => Date };
+type Deps = {
+  grants: { hasGrant(userId: string, datasetId: string, releaseId: string): Promise<boolean> };
+  repo: DepositingRepository; labs: LabsRepository; uploads: MultipartUploads; store: ObjectStore; doiPrefix: string; publicBaseUrl: string; log: Logger; now?: () => Date };
 
 type Viewer = { userId: string | null };
 
@@ -24,7 +26,7 @@ type Viewer = { userId: string | null };
  * Who may take a release's bytes, and how: every byte leaves through a
  * short-lived presigned URL issued after this check; the store is never public.
  * Open releases (and embargoed ones past their date) are for everyone; other
- * releases for the lab's members (access grants come with access requests).
+ * releases for the lab's members and for holders of a grant that has not expired or been revoked.
  */
 export function createDownloadsService(d: Deps) {
   const now = d.now ?? (() => new Date());
@@ -35,6 +37,7 @@ export function createDownloadsService(d: Deps) {
     if (rel.accessLevel === 'embargoed' && rel.embargoUntil && rel.embargoUntil <= now()) return { allowed: true, reason: 'embargo over' };
     const dataset = (await d.repo.findDataset(rel.datasetId))!;
     if (viewer.userId && (await d.labs.roleOf(dataset.labId, viewer.userId))) return { allowed: true, reason: 'lab member' };
+    if (viewer.userId && (await d.grants.hasGrant(viewer.userId, dataset.id, rel.id))) return { allowed: true, reason: 'granted' };
     return {
       allowed: false,
       reason:

@@ -4,4 +4,5 @@ export * from './labs';
 export * from './admin';
 export * from './errors';
 export * from './depositing';
+export * from './access';
 export * from './billing';

@@ -1,5 +1,6 @@
 // Every table, re-exported so drizzle-kit and the auth adapter see them all.
 export * from './auth';
 export * from './depositing';
+export * from './access';
 export * from './storage';
 export * from './billing';
