@@ -5,6 +5,7 @@ import { useFileReport } from '../../features/depositing/api/get-file-report';
 import { FileStateBadge } from '../../features/depositing/components/file-state-badge';
 import { ValidationReport } from '../../features/depositing/components/validation-report';
 import { ColumnMapping } from '../../features/depositing/components/column-mapping';
+import { IngestReport } from '../../features/ingest-report/components/ingest-report';
 import { RequireSession } from '../require-session';
 import { paths } from '../paths';
 import { formatBytes } from '../../lib/format';
@@ -32,6 +33,7 @@ function FileReportPage({ slug, draftId, fileId }: { slug: string; draftId: stri
           }
         >
           {r.result ? <ValidationReport result={r.result} /> : <p className="text-ink/70">The file has not been checked yet.</p>}
+          {r.result ? <IngestReport result={r.result} /> : null}
           {r.file.role === 'trajectories' && ['invalid', 'ready', 'failed'].includes(r.file.state) ? (
             <ColumnMapping slug={slug} draftId={draftId} fileId={fileId} current={r.ingestOptions} open={r.file.state !== 'ready'} />
           ) : null}
