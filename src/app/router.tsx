@@ -20,6 +20,7 @@ const router = createBrowserRouter([
       { path: '/labs/:slug/datasets', lazy: () => import('./routes/lab-datasets') },
       { path: '/labs/:slug/datasets/new', lazy: () => import('./routes/new-dataset') },
       { path: '/labs/:slug/review', lazy: () => import('./routes/review-queue') },
+      { path: '/labs/:slug/access-requests', lazy: () => import('./routes/lab-access-requests') },
       { path: '/labs/:slug/drafts/:draftId', lazy: () => import('./routes/draft') },
       { path: '/labs/:slug/drafts/:draftId/files/:fileId', lazy: () => import('./routes/draft-file') },
       { path: '/invitations/:id', lazy: () => import('./routes/invitation') },

@@ -40,6 +40,9 @@ export function Component() {
               {labRoleCan(l.myRole, { release: ['review'] }) ? (
                 <LinkButton variant="secondary" to={paths.reviewQueue(l.slug)}>Review queue</LinkButton>
               ) : null}
+              {labRoleCan(l.myRole, { accessRequest: ['decide'] }) ? (
+                <LinkButton variant="secondary" to={paths.labAccessRequests(l.slug)}>Access requests</LinkButton>
+              ) : null}
               {labRoleCan(l.myRole, { billing: ['manage'] }) ? (
                 <LinkButton variant="secondary" to={paths.labStorage(l.slug)}>Storage and billing</LinkButton>
               ) : null}

@@ -7,6 +7,10 @@ import { AccessBadge, accessExplanation } from '../../features/releases/componen
 import { CitationBox } from '../../features/releases/components/citation-box';
 import { ReleaseFiles } from '../../features/releases/components/release-files';
 import { ValidationReport } from '../../features/depositing/components/validation-report';
+import { IngestReport } from '../../features/ingest-report/components/ingest-report';
+import { RequestAccessForm } from '../../features/access/components/request-access-form';
+import { useReleaseAccess } from '../../features/releases/api/get-release-access';
+import { useSession } from '../../features/auth/api/get-session';
 import { paths } from '../paths';
 
 export function Component() {
@@ -123,10 +127,12 @@ function Landing({ r }: { r: ReleaseLanding }) {
           ) : null}
           <Section title="Files">
             <ReleaseFiles suffix={r.suffix} files={r.files} />
+            <AccessRequestPanel suffix={r.suffix} />
           </Section>
           {r.results.map((x) => (
             <Section key={x.fileName} title={`Statistics of ${x.fileName}`}>
               <ValidationReport result={x.result} />
+              <IngestReport result={x.result} />
             </Section>
           ))}
         </>
@@ -135,5 +141,24 @@ function Landing({ r }: { r: ReleaseLanding }) {
         <CitationBox suffix={r.suffix} styles={r.citation.styles} />
       </Section>
     </article>
+  );
+}
+
+/** For restricted files: the request form for a signed-in researcher, a sign-in link for a visitor. */
+function AccessRequestPanel({ suffix }: { suffix: string }) {
+  const session = useSession();
+  const access = useReleaseAccess(suffix);
+  if (!access.data || access.data.allowed || /withdrawn/.test(access.data.reason)) return null;
+  if (!session.data) {
+    return (
+      <p className="mt-3 text-sm">
+        <Link to={`${paths.signIn}?next=${encodeURIComponent(paths.release(suffix))}`}>Sign in</Link> to ask the lab for access.
+      </p>
+    );
+  }
+  return (
+    <div className="mt-4">
+      <RequestAccessForm suffix={suffix} />
+    </div>
   );
 }

@@ -18,7 +18,7 @@ export const FileStateBadge = ({ state }: { state: string }) => {
 
 const draftLooks: Record<string, { tone: 'dusk' | 'reed' | 'ember' | 'plum' | 'mist'; icon: string; label: string }> = {
   editing: { tone: 'mist', icon: '✎', label: 'Draft' },
-  submitted: { tone: 'dusk', icon: '⧗', label: 'In review' },
+  submitted: { tone: 'dusk', icon: '…', label: 'In review' },
   returned: { tone: 'ember', icon: '↩', label: 'Returned for changes' },
   published: { tone: 'reed', icon: '✓', label: 'Published' },
 };

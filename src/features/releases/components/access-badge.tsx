@@ -3,7 +3,7 @@ import { Badge } from '../../../components/badge';
 export function AccessBadge({ level, until }: { level: 'open' | 'restricted' | 'embargoed'; until?: string | null }) {
   if (level === 'open') return <Badge tone="reed" icon="○">Open</Badge>;
   if (level === 'restricted') return <Badge tone="ember" icon="◐">Restricted</Badge>;
-  return <Badge tone="plum" icon="◷">Embargoed{until ? ` until ${until.slice(0, 10)}` : ''}</Badge>;
+  return <Badge tone="plum" icon="◑">Embargoed{until ? ` until ${until.slice(0, 10)}` : ''}</Badge>;
 }
 
 export function accessExplanation(level: 'open' | 'restricted' | 'embargoed', until?: string | null, lab?: string): string {
