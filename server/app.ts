@@ -22,6 +22,9 @@ import { adminRoutes } from './routes/admin.routes';
 import { systemRoutes } from './routes/system.routes';
 import type { Route } from './routes/route';
 import { buildOpenApi } from './openapi';
+import { createTokensRepository } from './repositories/tokens.repository';
+import { createTokensService } from './services/tokens.service';
+import { tokensRoutes } from './routes/tokens.routes';
 import { METADATA_SCHEMA_VERSION, metadataSchema } from '../shared/metadata/validate-metadata';
 import type { Mailer } from './mail/mailer';
 import type { DepositingModule } from './depositing-module';
@@ -55,6 +58,7 @@ export function buildRoutes({ config, database, auth, store, log, mailer, deposi
       },
     }),
     ...accountRoutes(createProfileService({ users })),
+    ...tokensRoutes(createTokensService({ tokens: createTokensRepository(database.db) })),
     ...labsRoutes(createLabsService({ auth, labs })),
     ...adminRoutes(createAdminService({ users, labs })),
     ...billingRoutes(billingModule({ config, database, log, mailer })),
@@ -86,7 +90,12 @@ export function createApp(deps: AppDeps) {
   app.post(WEBHOOK_PATH, express.raw({ type: '*/*', limit: '1mb' }), billingWebhookHandler(billingModule(deps)));
   app.use('/api', express.json({ limit: '1mb' }));
 
-  const authorize = createAuthorize({ auth, labs: createLabsRepository(database.db), fakes: config.fakes });
+  const authorize = createAuthorize({
+    auth,
+    labs: createLabsRepository(database.db),
+    fakes: config.fakes,
+    tokens: createTokensService({ tokens: createTokensRepository(database.db) }),
+  });
   const routes = buildRoutes(deps);
   // Kept for tools that walk the route table (OpenAPI, authorisation checks).
   app.locals.routes = routes;

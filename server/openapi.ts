@@ -41,7 +41,7 @@ export function buildOpenApi(routes: Route[], baseUrl: string) {
       summary: r.summary,
       description: `Who may call it: ${describeAccess(r.access)}`,
       ...(params.length ? { parameters: params } : {}),
-      ...(r.access.kind === 'public' || r.access.kind === 'fakes' ? {} : { security: [{ sessionCookie: [] }] }),
+      ...(r.access.kind === 'public' || r.access.kind === 'fakes' ? {} : { security: [{ sessionCookie: [] }, ...(r.access.kind === 'signed-in' && r.access.sessionOnly ? [] : [{ apiToken: [] }])] }),
       ...(r.body ? { requestBody: { required: true, content: { 'application/json': { schema: z.toJSONSchema(r.body, { io: 'input', unrepresentable: 'any' }) } } } } : {}),
       responses: {
         [ok]: {
@@ -59,7 +59,10 @@ export function buildOpenApi(routes: Route[], baseUrl: string) {
     paths,
     components: {
       schemas: { Error: errorBody },
-      securitySchemes: { sessionCookie: { type: 'apiKey', in: 'cookie', name: 'better-auth.session_token' } },
+      securitySchemes: {
+        sessionCookie: { type: 'apiKey', in: 'cookie', name: 'better-auth.session_token' },
+        apiToken: { type: 'http', scheme: 'bearer', description: 'A personal API token (coh_…) from the account page; scope read for GET, deposit for changes.' },
+      },
     },
   };
 }

@@ -2,13 +2,15 @@ import type { Request, RequestHandler } from 'express';
 import { fromNodeHeaders } from 'better-auth/node';
 import { labRoleCan, type LabPermission, type LabRole } from '../../shared/lab-roles';
 import type { Auth } from '../auth/create-auth';
-import { forbidden, notFound, unauthenticated } from '../errors';
+import { AppError, forbidden, notFound, unauthenticated } from '../errors';
 import type { LabsRepository } from '../repositories/labs.repository';
+import type { TokensService } from '../services/tokens.service';
 
 /** Who may call a route. Every route names one; there is no other check. */
 export type Access =
   | { kind: 'public' }
-  | { kind: 'signed-in' }
+  // sessionOnly: not with an API token (token management, account changes).
+  | { kind: 'signed-in'; sessionOnly?: boolean }
   | { kind: 'admin' }
   // A lab route: `:slug` names the lab, the caller's lab role must grant `permission`.
   | { kind: 'lab'; permission: LabPermission; allowAdmin?: boolean }
@@ -18,6 +20,8 @@ export type Access =
 export type Actor = {
   user: { id: string; name: string; email: string; role?: string | null; emailVerified: boolean };
   headers: Headers;
+  // Set when the request came with an API token instead of a browser session.
+  token?: { scopes: Array<'read' | 'deposit'> };
 };
 
 export type LabContext = { id: string; slug: string; name: string; role: LabRole | null };
@@ -32,6 +36,7 @@ declare module 'express-serve-static-core' {
 export const access = {
   public: { kind: 'public' } as Access,
   signedIn: { kind: 'signed-in' } as Access,
+  session: { kind: 'signed-in', sessionOnly: true } as Access,
   admin: { kind: 'admin' } as Access,
   fakes: { kind: 'fakes' } as Access,
   lab: (permission: LabPermission): Access => ({ kind: 'lab', permission }),
@@ -39,12 +44,18 @@ export const access = {
   labOrAdmin: (permission: LabPermission): Access => ({ kind: 'lab', permission, allowAdmin: true }),
 };
 
-type Deps = { auth: Auth; labs: LabsRepository; fakes: boolean };
+type Deps = { auth: Auth; labs: LabsRepository; fakes: boolean; tokens?: Pick<TokensService, 'authenticate'> };
 
 /** Builds the one authorisation middleware from a route's access rule. */
-export function createAuthorize({ auth, labs, fakes }: Deps) {
+export function createAuthorize({ auth, labs, fakes, tokens }: Deps) {
   async function loadActor(req: Request): Promise<Actor | undefined> {
     const headers = fromNodeHeaders(req.headers);
+    const bearer = /^Bearer\s+(\S+)$/i.exec(req.headers.authorization ?? '')?.[1];
+    if (bearer && tokens) {
+      const found = await tokens.authenticate(bearer);
+      if (!found) throw new AppError('bad_token', 'This API token is not valid or was revoked.', 401);
+      return { user: found.user as Actor['user'], headers, token: { scopes: found.scopes } };
+    }
     const session = await auth.api.getSession({ headers });
     if (!session) return undefined;
     return { user: session.user as Actor['user'], headers };
@@ -63,6 +74,10 @@ export function createAuthorize({ auth, labs, fakes }: Deps) {
         return next();
       }
       if (!actor) throw unauthenticated();
+      if (actor.token) {
+        if ((rule.kind === 'signed-in' && rule.sessionOnly) || rule.kind === 'admin') throw forbidden('Sign in with a browser session for this; API tokens cannot do it.');
+        if (req.method !== 'GET' && !actor.token.scopes.includes('deposit')) throw forbidden('This API token may only read. Create one with the deposit scope to change data.');
+      }
       if (rule.kind === 'signed-in') return next();
       if (rule.kind === 'admin') {
         if (actor.user.role !== 'admin') throw forbidden('Only platform administrators can do this.');

@@ -11,7 +11,7 @@ export function accountRoutes(profile: ProfileService) {
       handler: async (_req, res) => res.json(await profile.get(userId(res.locals.actor))),
     }),
     route({
-      method: 'patch', path: '/api/me', access: access.signedIn, summary: 'Update name and ORCID iD', body: updateProfileInput, response: profileSchema,
+      method: 'patch', path: '/api/me', access: access.session, summary: 'Update name and ORCID iD', body: updateProfileInput, response: profileSchema,
       handler: async (_req, res, body) => res.json(await profile.update(userId(res.locals.actor), body)),
     }),
   ];

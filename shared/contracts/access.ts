@@ -35,3 +35,10 @@ export type AccessRequestView = {
   decisionNote: string | null;
   grant: { id: string; expiresAt: string | null; revokedAt: string | null; status: 'active' | 'expired' | 'revoked' } | null;
 };
+
+export const createTokenInput = z.object({
+  name: z.string().trim().min(2, 'Name the token after the script that uses it').max(100),
+  scopes: z.array(z.enum(['read', 'deposit'])).min(1).default(['read']),
+});
+export type CreateTokenInput = z.input<typeof createTokenInput>;
+export type ApiTokenView = { id: string; name: string; prefix: string; scopes: string[]; createdAt: string; lastUsedAt: string | null; revokedAt: string | null };

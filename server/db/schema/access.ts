@@ -106,3 +106,23 @@ export const outboxMail = pgTable('outbox_mail', {
   sentAt: timestamp({ withTimezone: true }),
   createdAt: timestamp({ withTimezone: true }).defaultNow().notNull(),
 });
+
+/** Personal API tokens for scripts; only a SHA-256 of the token is kept. */
+export const apiToken = pgTable(
+  'api_token',
+  {
+    id: text().primaryKey(),
+    userId: text()
+      .notNull()
+      .references(() => user.id, { onDelete: 'cascade' }),
+    name: text().notNull(),
+    // The first characters, to recognise a token in lists.
+    prefix: text().notNull(),
+    tokenHash: text().notNull().unique(),
+    scopes: jsonb().$type<Array<'read' | 'deposit'>>().notNull(),
+    lastUsedAt: timestamp({ withTimezone: true }),
+    revokedAt: timestamp({ withTimezone: true }),
+    createdAt: timestamp({ withTimezone: true }).defaultNow().notNull(),
+  },
+  (t) => [index('api_token_user_idx').on(t.userId)],
+);
