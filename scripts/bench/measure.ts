@@ -14,11 +14,18 @@ function endAtLine(path: string, approx: number): number {
   return approx + i;
 }
 
+/** CPU seconds of all threads of this process since `c0` (user + system): steadier than wall time on a shared machine. */
+function cpuSince(c0: NodeJS.CpuUsage): number {
+  const c = process.cpuUsage(c0);
+  return Math.round((c.user + c.system) / 1e4) / 100;
+}
+
 async function run(): Promise<Record<string, unknown>> {
   const size = statSync(file).size;
   const end = limitArg ? endAtLine(file, Math.floor(size * Number(limitArg))) : undefined;
   const stream = () => createReadStream(file, { highWaterMark: 1 << 20, end });
   const t0 = performance.now();
+  const cpu0 = process.cpuUsage();
   let rows = 0;
   let bytes = 0;
   if (kind === 'read-bytes') {
@@ -51,7 +58,7 @@ async function run(): Promise<Record<string, unknown>> {
     rows = Number(row.rows);
     bytes = size;
     const out = { polarization: Number(row.polarization), meanSpeed: Number(row.mean_speed), frames: Number(row.frames) };
-    return { kind, rows, bytes, seconds: (performance.now() - t0) / 1000, maxRssMB: process.resourceUsage().maxRSS / 1024, check: out };
+    return { kind, rows, bytes, seconds: (performance.now() - t0) / 1000, maxRssMB: process.resourceUsage().maxRSS / 1024, cpuSeconds: cpuSince(cpu0), check: out };
   } else if (kind === 'ours-basic' || kind === 'ours-full') {
     const doc = await analyzeStream(stream(), { settings: { fps: 100, mode: kind === 'ours-basic' ? 'basic' : 'full' } });
     rows = doc.summary?.rows ?? 0;
@@ -61,12 +68,12 @@ async function run(): Promise<Record<string, unknown>> {
       rows,
       bytes,
       seconds: (performance.now() - t0) / 1000,
-      maxRssMB: process.resourceUsage().maxRSS / 1024,
+      maxRssMB: process.resourceUsage().maxRSS / 1024, cpuSeconds: cpuSince(cpu0),
       status: doc.status,
       check: { polarization: doc.summary?.polarization.mean, meanSpeed: doc.summary?.velocity.speed.mean, frames: doc.summary?.frames },
     };
   }
-  return { kind, rows, bytes: bytes || size, seconds: (performance.now() - t0) / 1000, maxRssMB: process.resourceUsage().maxRSS / 1024 };
+  return { kind, rows, bytes: bytes || size, seconds: (performance.now() - t0) / 1000, maxRssMB: process.resourceUsage().maxRSS / 1024, cpuSeconds: cpuSince(cpu0) };
 }
 
 run().then((r) => process.stdout.write(JSON.stringify(r) + '\n'));

@@ -15,7 +15,7 @@ mkdirSync(dir, { recursive: true });
 const csv = join(dir, `bench-${rows}.csv`);
 const gz = `${csv}.gz`;
 
-interface Line { name: string; kind: string; rows: number; bytes: number; seconds: number; maxRssMB: number; status?: string; check?: unknown }
+interface Line { name: string; kind: string; rows: number; bytes: number; seconds: number; maxRssMB: number; cpuSeconds?: number; status?: string; check?: unknown }
 
 function measure(name: string, kind: string, file: string, limit?: number): Line {
   const args = ['--import', 'tsx', join(import.meta.dirname, 'measure.ts'), kind, file, ...(limit ? [String(limit)] : [])];
@@ -75,10 +75,11 @@ async function main() {
     measure('ours-full (first half)', 'ours-full', csv, 0.5),
   ];
   const by = Object.fromEntries(lines.map((l) => [l.name, l]));
-  const header = ['line', 'seconds', 'rows/s', 'MB/s (text)', 'peak RSS MB', 'status'];
+  const header = ['line', 'seconds', 'CPU s', 'rows/s', 'MB/s (text)', 'peak RSS MB', 'status'];
+  // CPU s: all threads of the line's process (user + system, DuckDB's threads included), steadier than wall time.
   // MB/s of CSV text: the plain file's size (or the part read) over the time, also for gzip input.
   const textBytes = (l: Line) => (l.name.includes('half') ? l.bytes : statSync(csv).size);
-  const table = lines.map((l) => [l.name, l.seconds.toFixed(2), l.rows > 0 ? Math.round(l.rows / l.seconds).toLocaleString('en-US') : '—', (textBytes(l) / 1e6 / l.seconds).toFixed(0), l.maxRssMB.toFixed(0), l.status ?? '']);
+  const table = lines.map((l) => [l.name, l.seconds.toFixed(2), l.cpuSeconds !== undefined ? l.cpuSeconds.toFixed(2) : '—', l.rows > 0 ? Math.round(l.rows / l.seconds).toLocaleString('en-US') : '—', (textBytes(l) / 1e6 / l.seconds).toFixed(0), l.maxRssMB.toFixed(0), l.status ?? '']);
   const w = header.map((h, i) => Math.max(h.length, ...table.map((r) => r[i].length)));
   const fmt = (r: string[]) => r.map((c, i) => (i === 0 ? c.padEnd(w[i]) : c.padStart(w[i]))).join('  ');
   console.log(`\nBenchmark: ${rows.toLocaleString('en-US')} rows, ${mb(csv).toFixed(0)} MB CSV, ${mb(gz).toFixed(0)} MB gzip`);

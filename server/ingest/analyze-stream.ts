@@ -6,7 +6,9 @@
  *                   1 MiB has been seen (small inputs stay single-threaded):
  *                     · plain text: the first 4 MiB (and whatever arrives before the worker is up) are
  *                       parsed here by DelimitedTextParser (byte-level, fast path for plain decimal lines);
- *                       then whole-line blocks go to the worker (parseDataBlock, ≤ 4 blocks in flight);
+ *                       then whole-line blocks go to the worker (parseDataBlock, ≤ 4 blocks in flight; column
+ *                       and text buffers go back and forth for reuse; a block is parsed here instead when the
+ *                       worker is 3 blocks behind);
  *                       a block it declines (quotes, exponents, problems) is parsed here, so every
  *                       message and number is unchanged
  *                     · gzip: parsed here (zlib already occupies a second thread)
@@ -23,14 +25,14 @@
  *                       (sort-and-sweep keeping the x-order between frames; cell list from
  *                       bruteForceBelow = 260); nearest neighbours every round(neighbourSampleInterval × fps)-th
  *                       frame, fused with the pair pass by brute force for small groups
- *                     · velocity autocorrelation: its samples are batched (64k) to the worker, which runs
+ *                     · velocity autocorrelation: its samples are batched (16k) to the worker, which runs
  *                       the same accumulator; the result is fetched after completeInput(), before end()
  *
  * Both threads run pure functions of shared/ (the worker gets their source text, no module loader).
  * Settings that trade cost for sampling (stored in the result's parameters): neighbourSampleInterval (0.04 s),
  * autocorrelationOriginStride (5 frames), bruteForceBelow (260).
  * Memory: the reorder store (maxReorderRows rows, ≈50 MB), ±L frames of rows, one autocorrelation ring per
- * active track, ≤ 4 parse blocks and ≤ 8 autocorrelation batches in flight; not the file size.
+ * active track, ≤ 4 parse blocks and ≤ 32 autocorrelation batches (16k samples) in flight; not the file size.
  */
 import { Readable } from 'node:stream';
 import { createGunzip, type ZlibOptions } from 'node:zlib';

@@ -9,15 +9,21 @@ export const WORKER_AFTER_BYTES = 1 << 20;
 export const OFFLOAD_AFTER_BYTES = 4 << 20;
 /** Parse blocks in flight: enough for the worker to parse ahead while the main thread computes; bounds memory. */
 const MAX_IN_FLIGHT = 4;
-/** Autocorrelation batches (64k samples) queued in the worker before the main thread waits. */
-const MAX_ACF_QUEUED = 8;
-const ACF_BATCH = 1 << 16;
+/** Worker this many blocks behind: the next block is parsed here at its turn (both threads parse). */
+const LOCAL_PARSE_PENDING = 3;
+/**
+ * Autocorrelation batches (16k samples, ≈ 8 ms of work) queued in the worker before the main thread waits: small
+ * batches keep the worker responsive to parse requests, which it serves first.
+ */
+const MAX_ACF_QUEUED = 32;
+const ACF_BATCH = 1 << 14;
 
 interface ParseReply {
   id: number;
-  /** Parsed rows, or null: the block needs the full parser (then `bytes` come back). */
+  /** Parsed rows, or null: the block needs the full parser. */
   block: ParsedBlock | null;
-  bytes: Uint8Array | null;
+  /** The block's bytes, handed back (parsed: their buffer is reused; declined: the full parser reads them). */
+  bytes: Uint8Array;
 }
 
 interface AcfReply {
@@ -35,12 +41,24 @@ const parseDataBlock = ${parseDataBlock.toString()};
 const createAutocorrelationAccumulator = ${createAutocorrelationAccumulator.toString()};
 const queued = new Int32Array(workerData.queued);
 const accs = new Map();
+const pool = [];
 parentPort.on("message", (m) => {
   if (m.type === "parse") {
-    const block = parseDataBlock(m.bytes, 0, m.bytes.length, m.layout);
-    const transfer = block ? [block.trackIds.buffer, ...Object.values(block.values).map((v) => v.buffer)] : [m.bytes.buffer];
-    parentPort.postMessage({ id: m.id, block, bytes: block ? null : m.bytes }, transfer);
-  } else if (m.type === "acf-init") accs.set(m.id, createAutocorrelationAccumulator(m.maxLag, m.stride));
+    for (const r of m.recycle) pool.push(r);
+    if (pool.length > 64) pool.splice(0, pool.length - 64);
+    const block = parseDataBlock(m.bytes, 0, m.bytes.length, m.layout, pool);
+    const transfer = block ? [m.bytes.buffer, block.trackIds.buffer, ...Object.values(block.values).map((v) => v.buffer)] : [m.bytes.buffer];
+    parentPort.postMessage({ id: m.id, block, bytes: m.bytes }, transfer);
+  } else {
+    // Autocorrelation work runs one message per event-loop turn, so parse requests (handled at once) overtake it.
+    acfQ.push(m);
+    if (acfQ.length === 1) setImmediate(drainAcf);
+  }
+});
+const acfQ = [];
+function drainAcf() {
+  const m = acfQ.shift();
+  if (m.type === "acf-init") accs.set(m.id, createAutocorrelationAccumulator(m.maxLag, m.stride));
   else if (m.type === "acf") {
     const a = accs.get(m.id);
     for (let s = 0; s < m.n; ) {
@@ -57,7 +75,8 @@ parentPort.on("message", (m) => {
     accs.delete(m.id);
     parentPort.postMessage({ acfId: m.id, rho: r.rho, pairs: r.pairs });
   }
-});
+  if (acfQ.length > 0) setImmediate(drainAcf);
+}
 parentPort.postMessage({ ready: true });
 `;
 
@@ -69,8 +88,12 @@ parentPort.postMessage({ ready: true });
  *   parser declines (quotes, exponents, blank lines, problems) is parsed again
  *   here by the full parser, so results and messages are unchanged;
  * - the velocity autocorrelation (both plain and gzip): the samples are
- *   batched to the worker, which runs the same accumulator; its result is
- *   fetched before the ingest ends.
+ *   batched to the worker, which runs the same accumulator (after any parse
+ *   request waiting: parsing is on the critical path); its result is fetched
+ *   before the ingest ends.
+ * Buffers are recycled: the columns of a consumed block go back to the worker
+ * with the next request, the text buffer comes back with the reply (fewer
+ * fresh allocations, page faults and GC for external memory).
  * Validation, kinematics and the other statistics stay in the main thread (one sequential stream).
  */
 export class ParseOffload {
@@ -89,6 +112,9 @@ export class ParseOffload {
   private onReady = () => {};
   private remote: RemoteAutocorrelation | null = null;
   private acceptRemote = true;
+  /** Buffers of consumed blocks, reused for the next ones (fewer fresh allocations and page faults): columns, text. */
+  private readonly spare: ArrayBuffer[] = [];
+  private readonly spareBytes: ArrayBuffer[] = [];
   /** Autocorrelation batches queued in the worker (shared counter: the worker decrements it). */
   readonly acfQueued = new Int32Array(new SharedArrayBuffer(4));
 
@@ -134,7 +160,7 @@ export class ParseOffload {
       this.carry = concat(this.carry, chunk);
       return;
     }
-    const block = concat(this.carry, chunk.subarray(0, last + 1));
+    const block = concat(this.carry, chunk.subarray(0, last + 1), this.spareBytes);
     this.carry = chunk.slice(last + 1);
     this.send(block);
     while (this.queue.length >= MAX_IN_FLIGHT && !this.ingest.stopped) await this.deliverOldest();
@@ -223,7 +249,7 @@ export class ParseOffload {
     // is parsed here at its turn, so both threads parse.
     let pending = 0;
     for (const q of this.queue) if (q.reply && !q.done) pending++;
-    if (pending >= 2) {
+    if (pending >= LOCAL_PARSE_PENDING) {
       this.queue.push({ reply: null, local: bytes, bytes: bytes.length, done: true });
       return;
     }
@@ -239,23 +265,37 @@ export class ParseOffload {
         reject,
       });
     });
-    // Transferred, not copied: the worker hands the bytes back if the block needs the full parser.
-    if (!this.broken) this.worker!.postMessage({ type: 'parse', id, bytes, layout: this.ingest.blockLayout() ?? FALLBACK_LAYOUT }, [bytes.buffer as ArrayBuffer]);
+    // Transferred, not copied: the worker hands the bytes back (reused, or parsed here if it declined the block),
+    // with the columns written into the spare buffers sent along.
+    const layout = this.ingest.blockLayout() ?? FALLBACK_LAYOUT;
+    const recycle = this.spare.splice(0, Math.min(this.spare.length, layout.columns.length + 1));
+    if (!this.broken) this.worker!.postMessage({ type: 'parse', id, bytes, layout, recycle }, [bytes.buffer as ArrayBuffer, ...recycle]);
     this.queue.push(item);
   }
 
   private async deliverOldest(): Promise<void> {
     const item = this.queue.shift()!;
+    // Parsed here by the full parser (its fast path is warm from the first blocks; same numbers as the worker's).
     if (item.local) return this.ingest.push(item.local);
     const r = await item.reply!;
-    if (r.block) this.ingest.pushParsed(r.block, r.block.count, item.bytes);
-    else this.ingest.push(r.bytes!);
+    if (!r.block) return this.ingest.push(r.bytes);
+    this.ingest.pushParsed(r.block, r.block.count, item.bytes);
+    this.recycle(r.block, r.bytes);
+  }
+
+  /** A block consumed by the ingest (which copies what it keeps): its buffers serve the next blocks. */
+  private recycle(block: ParsedBlock, bytes: Uint8Array): void {
+    if (this.spare.length < 64) {
+      this.spare.push(block.trackIds.buffer as ArrayBuffer);
+      for (const v of Object.values(block.values)) this.spare.push(v.buffer as ArrayBuffer);
+    }
+    if (this.spareBytes.length < 8) this.spareBytes.push(bytes.buffer as ArrayBuffer);
   }
 }
 
 /**
  * Velocity-autocorrelation accumulator computed in the worker: samples are
- * batched (64k) and sent in order, evictions forwarded; result() is
+ * batched (16k) and sent in order, evictions forwarded; result() is
  * available after fetch(). Same estimator, same numbers as in this thread.
  */
 class RemoteAutocorrelation implements AutocorrelationAccumulator {
@@ -325,8 +365,15 @@ class RemoteAutocorrelation implements AutocorrelationAccumulator {
 // Declines every block (the ingest stopped meanwhile: the bytes are then ignored anyway).
 const FALLBACK_LAYOUT: BlockLayout = { delimiter: 44, decimalComma: false, fieldCount: -1, actions: new Int8Array(0), columns: [], columnIndex: new Int32Array(0) };
 
-function concat(a: Uint8Array, b: Uint8Array): Uint8Array {
-  const out = new Uint8Array(a.length + b.length);
+/** a followed by b, in a spare buffer when one is large enough (else a new one, with room for later reuse). */
+function concat(a: Uint8Array, b: Uint8Array, spare?: ArrayBuffer[]): Uint8Array {
+  const n = a.length + b.length;
+  let buf: ArrayBuffer | undefined;
+  if (spare) {
+    const j = spare.findIndex((x) => x.byteLength >= n);
+    if (j >= 0) buf = spare.splice(j, 1)[0];
+  }
+  const out = new Uint8Array(buf ?? new ArrayBuffer(spare ? Math.max(n, (1 << 20) + (1 << 16)) : n), 0, n);
   out.set(a, 0);
   out.set(b, a.length);
   return out;

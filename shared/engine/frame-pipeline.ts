@@ -23,7 +23,7 @@ interface TrackState {
   pz: number;
 }
 
-const COLS = 12; // frame, x, y, z, vx, vy, vz, ax, ay, az, track, line
+const COLS = 10; // frame, x, y, z, vx, vy, vz, ax, ay, az (track and line: Int32 rings)
 
 /**
  * Frame-ordered pipeline: rows arrive sorted by frame; per-track Gaussian
@@ -33,8 +33,10 @@ const COLS = 12; // frame, x, y, z, vx, vy, vz, ax, ay, az, track, line
  * 2L + 1 positions per active track.
  */
 export class FramePipeline {
-  private cap = 1 << 12;
+  private cap = 1 << 14;
   private ring: Float64Array[] = Array.from({ length: COLS }, () => new Float64Array(this.cap));
+  private ringTrack = new Int32Array(this.cap);
+  private ringLine = new Int32Array(this.cap);
   private seq = 0;
   private oldestLive = 0;
   private window: { frame: number; start: number; count: number }[] = [];
@@ -44,6 +46,8 @@ export class FramePipeline {
   private readonly kernels: DerivativeKernels | null;
   private readonly states: (TrackState | undefined)[] = [];
   readonly tracks: (TrackSummary | undefined)[] = [];
+  /** Mode 'full' (accelerations and the speed-jump check are used only then). */
+  private readonly full: boolean;
   private readonly deriveV: boolean;
   private readonly deriveA: boolean;
   private readonly checkV: boolean;
@@ -64,6 +68,7 @@ export class FramePipeline {
     private readonly emit: (f: EmittedFrame) => void,
   ) {
     const full = s.mode === 'full';
+    this.full = full;
     this.deriveV = full && !haveV;
     this.deriveA = full && !haveA;
     this.checkV = full && haveV;
@@ -90,16 +95,18 @@ export class FramePipeline {
    * returns the first k whose frame is earlier than the current one (input not sorted by frame), else −1.
    */
   pushRows(c: RowColumns, frames: Float64Array, order: Uint32Array | null, from: number, to: number): number {
-    const { track, line, x, y, z, vx, vy, vz, ax, ay, az } = c;
-    for (let k = from; k < to; k++) {
-      const i = order ? order[k] : k;
-      if (!this.push(track[i], frames[k - from], x[i], y[i], z[i], vx[i], vy[i], vz[i], ax[i], ay[i], az[i], line[i])) return k;
-    }
+    for (let k = from; k < to; k++) if (!this.pushRow(c, order ? order[k] : k, frames, k - from)) return k;
     return -1;
   }
 
-  /** Adds one row; returns false if its frame is earlier than the current one (input not sorted by frame). */
-  push(track: number, frame: number, x: number, y: number, z: number, vx: number, vy: number, vz: number, ax: number, ay: number, az: number, line: number): boolean {
+  /**
+   * Adds row i of `c` at frame frames[f]; returns false if its frame is earlier than the current one (input not
+   * sorted by frame). Takes indices, not values: doubles passed to a call that is not inlined are boxed (GC).
+   */
+  private pushRow(c: RowColumns, i: number, frames: Float64Array, f: number): boolean {
+    const frame = frames[f];
+    const track = c.track[i], line = c.line[i];
+    const x = c.x[i], y = c.y[i], z = c.z[i];
     if (frame !== this.current) {
       if (frame < this.current) return false;
       this.closeFrame(frame);
@@ -142,20 +149,24 @@ export class FramePipeline {
     r[1][k] = x;
     r[2][k] = y;
     r[3][k] = z;
-    r[4][k] = vx;
-    r[5][k] = vy;
-    r[6][k] = vz;
-    r[7][k] = ax;
-    r[8][k] = ay;
-    r[9][k] = az;
-    r[10][k] = track;
-    r[11][k] = line;
-    if (this.kernels) this.kinematics(ts, x, y, z);
+    r[4][k] = c.vx[i];
+    r[5][k] = c.vy[i];
+    r[6][k] = c.vz[i];
+    if (this.full) {
+      r[7][k] = c.ax[i];
+      r[8][k] = c.ay[i];
+      r[9][k] = c.az[i];
+    }
+    this.ringTrack[k] = track;
+    this.ringLine[k] = line;
+    if (this.kernels) this.kinematics(ts, k);
     this.seq++;
     return true;
   }
 
-  private kinematics(ts: TrackState, x: number, y: number, z: number): void {
+  /** Adds ring slot k (just written) to its track's window; derives the window centre's kinematics once full. */
+  private kinematics(ts: TrackState, k: number): void {
+    const x = this.ring[1][k], y = this.ring[2][k], z = this.ring[3][k];
     const L = this.L;
     const W = 2 * L + 1;
     if (!ts.pos) {
@@ -212,11 +223,16 @@ export class FramePipeline {
   private grow(): void {
     const cap = this.cap * 2;
     const ring = Array.from({ length: COLS }, () => new Float64Array(cap));
+    const rt = new Int32Array(cap), rl = new Int32Array(cap);
     for (let s = this.oldestLive; s < this.seq; s++) {
       const a = s & (this.cap - 1), b = s & (cap - 1);
       for (let c = 0; c < COLS; c++) ring[c][b] = this.ring[c][a];
+      rt[b] = this.ringTrack[a];
+      rl[b] = this.ringLine[a];
     }
     this.ring = ring;
+    this.ringTrack = rt;
+    this.ringLine = rl;
     this.cap = cap;
   }
 
@@ -238,22 +254,30 @@ export class FramePipeline {
   private emitOldest(): void {
     const w = this.window.shift()!;
     const n = w.count;
-    if (this.scratch.x.length < n) this.scratch = this.makeScratch(2 * n);
-    const sc = this.scratch;
     const r = this.ring;
-    for (let i = 0; i < n; i++) {
-      const k = (w.start + i) & (this.cap - 1);
-      sc.x[i] = r[1][k];
-      sc.y[i] = r[2][k];
-      sc.z[i] = r[3][k];
-      sc.vx[i] = r[4][k];
-      sc.vy[i] = r[5][k];
-      sc.vz[i] = r[6][k];
-      sc.ax[i] = r[7][k];
-      sc.ay[i] = r[8][k];
-      sc.az[i] = r[9][k];
-      sc.track[i] = r[10][k];
-      sc.line[i] = r[11][k];
+    const a = w.start & (this.cap - 1);
+    let sc: { x: Float64Array; y: Float64Array; z: Float64Array; vx: Float64Array; vy: Float64Array; vz: Float64Array; ax: Float64Array; ay: Float64Array; az: Float64Array; track: Int32Array; line: Int32Array };
+    if (a + n <= this.cap) {
+      // The frame's rows are contiguous in the ring (the usual case): hand out views, no copy.
+      const e = a + n;
+      sc = { x: r[1].subarray(a, e), y: r[2].subarray(a, e), z: r[3].subarray(a, e), vx: r[4].subarray(a, e), vy: r[5].subarray(a, e), vz: r[6].subarray(a, e), ax: r[7].subarray(a, e), ay: r[8].subarray(a, e), az: r[9].subarray(a, e), track: this.ringTrack.subarray(a, e), line: this.ringLine.subarray(a, e) };
+    } else {
+      if (this.scratch.x.length < n) this.scratch = this.makeScratch(2 * n);
+      sc = this.scratch;
+      for (let i = 0; i < n; i++) {
+        const k = (w.start + i) & (this.cap - 1);
+        sc.x[i] = r[1][k];
+        sc.y[i] = r[2][k];
+        sc.z[i] = r[3][k];
+        sc.vx[i] = r[4][k];
+        sc.vy[i] = r[5][k];
+        sc.vz[i] = r[6][k];
+        sc.ax[i] = r[7][k];
+        sc.ay[i] = r[8][k];
+        sc.az[i] = r[9][k];
+        sc.track[i] = this.ringTrack[k];
+        sc.line[i] = this.ringLine[k];
+      }
     }
     this.oldestLive = w.start + n;
     const full = this.s.mode === 'full';

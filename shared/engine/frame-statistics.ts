@@ -92,6 +92,8 @@ export class FrameStatistics {
   /** Per-frame scratch: speeds and velocity components of the rows with a finite speed. */
   private speedBuf: Float64Array[] = [new Float64Array(0)];
   private trackBuf = new Int32Array(0);
+  /** Per-frame scratch: the finite nearest-neighbour distances. */
+  private nnFinite = new Float64Array(0);
   readonly pairEvents: PairEvent[] = [];
   pairEventCount = 0;
   private pairedTracks = new Set<number>();
@@ -285,13 +287,13 @@ export class FrameStatistics {
   private addNearest(f: { frame: number; time: number; track: Int32Array; line: Int32Array }, n: number, d: Float64Array, nb: Int32Array, swap: number): void {
     const { track, line } = f;
     let s = 0, k = 0;
+    if (this.nnFinite.length < n) this.nnFinite = new Float64Array(2 * n);
+    const finite = this.nnFinite;
     for (let i = 0; i < n; i++) {
       const di = d[i];
       if (!(di === di)) continue;
       s += di;
-      k++;
-      this.nnAcc.add(di);
-      this.nnHist.add(di, 0, 1);
+      finite[k++] = di;
       if (di < swap) {
         const j = nb[i];
         const a = Math.min(track[i], track[j]), b = Math.max(track[i], track[j]);
@@ -306,6 +308,9 @@ export class FrameStatistics {
         }
       }
     }
+    // Per frame, as the speeds: moments by two-pass + merge, histogram counts in order.
+    this.nnAcc.addBatch(finite, k);
+    this.nnHist.addCounts(finite, k);
     this.series.meanNearestNeighbour.add(f.time, k > 0 ? s / k : NaN);
   }
 

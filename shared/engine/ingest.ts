@@ -106,7 +106,8 @@ class RowStore implements RowColumns {
   /** Makes room for `n` rows in all (keeps the content). */
   reserve(n: number): void {
     if (n <= this.track.length) return;
-    const cap = Math.max(n, 2 * this.track.length);
+    // ×4: the reorder store grows to maxReorderRows rows in few copies.
+    const cap = Math.max(n, 4 * this.track.length);
     const grow = <T extends Int32Array | Float64Array>(old: T, make: (k: number) => T): T => {
       const g = make(cap);
       g.set(old.subarray(0, this.count));
@@ -224,6 +225,8 @@ export function createIngest(options: IngestOptions = {}): Ingest {
     const VX = v.vx ?? nan, VY = v.vy ?? nan, VZ = v.vz ?? nan, AX = v.ax ?? nan, AY = v.ay ?? nan, AZ = v.az ?? nan;
     const c = clean;
     const three = dims === 3;
+    // Mode 'basic' uses no accelerations: their clean columns are left unwritten (never read).
+    const accelerations = s.mode === 'full';
     let m = 0;
     // Hot loop: one pass per row from the parser's columns into the clean columns.
     for (let i = 0; i < n; i++) {
@@ -254,9 +257,11 @@ export function createIngest(options: IngestOptions = {}): Ingest {
       c.vx[m] = VX[i] * scale;
       c.vy[m] = VY[i] * scale;
       c.vz[m] = three ? VZ[i] * scale : 0;
-      c.ax[m] = AX[i] * scale;
-      c.ay[m] = AY[i] * scale;
-      c.az[m] = three ? AZ[i] * scale : 0;
+      if (accelerations) {
+        c.ax[m] = AX[i] * scale;
+        c.ay[m] = AY[i] * scale;
+        c.az[m] = three ? AZ[i] * scale : 0;
+      }
       m++;
     }
     c.count = m;

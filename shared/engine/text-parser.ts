@@ -692,34 +692,36 @@ export interface ParsedBlock {
  * which reports every problem with its row). Values are exactly those of the
  * parser (Clinger's fast path, PLDI 1990). Pure and self-contained (no
  * reference outside its arguments and built-ins): a worker runs its source
- * text (server/ingest/parse-offload.ts).
+ * text (server/ingest/parse-offload.ts). `pool`: spare buffers to write into
+ * (taken out of the array; each returned column's `.buffer` may be given back).
  */
-export function parseDataBlock(b: Uint8Array, start: number, end: number, layout: BlockLayout): ParsedBlock | null {
+export function parseDataBlock(b: Uint8Array, start: number, end: number, layout: BlockLayout, pool?: ArrayBuffer[], exactRows?: number): ParsedBlock | null {
   const { actions, fieldCount } = layout;
   const nActions = actions.length;
   const delim = layout.delimiter;
   const comma = layout.decimalComma ? 44 : -1;
-  const pow10 = [1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15];
-  // Exact capacity: one row per line break (the block ends with one).
-  let cap = 1;
-  for (let p = b.indexOf(10, start); p >= 0 && p < end; p = b.indexOf(10, p + 1)) cap++;
-  let trackIds = new Int32Array(cap);
-  let cols = layout.columns.map(() => new Float64Array(cap));
+  const pow10 = new Float64Array([1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15]);
+  if (fieldCount < 1) return null;
+  // Capacity from the mean length of the first 64 lines, +25 % (counting every line break costs a call per line);
+  // if the block holds more lines, it is parsed again with the exact count (exactRows).
+  let cap = exactRows ?? 0;
+  if (exactRows === undefined) {
+    let p = start - 1, n = 0;
+    while (n < 64 && (p = b.indexOf(10, p + 1)) >= 0 && p < end) n++;
+    cap = n < 64 ? n + 1 : Math.ceil(((end - start) / (p + 1 - start)) * 64 * 1.25) + 64;
+  }
+  // Output buffers come from `pool` when one is large enough (buffers handed back by the consumer), else are new.
+  const take = (): ArrayBuffer => {
+    if (pool) for (let j = pool.length - 1; j >= 0; j--) if (pool[j].byteLength >= 8 * cap) return pool.splice(j, 1)[0];
+    return new ArrayBuffer(8 * cap);
+  };
+  const trackIds = new Int32Array(take(), 0, cap);
+  const cols = layout.columns.map(() => new Float64Array(take(), 0, cap));
   const colOf = layout.columnIndex;
   let k = 0;
   let i = start;
-  while (i < end) {
-    if (k === cap) {
-      cap *= 2;
-      const t = new Int32Array(cap);
-      t.set(trackIds);
-      trackIds = t;
-      cols = cols.map((c) => {
-        const g = new Float64Array(cap);
-        g.set(c);
-        return g;
-      });
-    }
+  // Parses the line at i into row k; returns the start of the next line, or −1 (block declined).
+  const line = (i: number, k: number): number => {
     let field = 0;
     let track = -1;
     let c = 0;
@@ -748,10 +750,10 @@ export function parseDataBlock(b: Uint8Array, start: number, end: number, layout
         }
         c = i < end ? b[i] : -1;
       }
-      if (digits === 0 || digits > 15) return null;
+      if (digits === 0 || digits > 15) return -1;
       const action = field < nActions ? actions[field] : -1;
       if (action === 0) {
-        if (neg || frac > 0 || mant >= 4194304) return null;
+        if (neg || frac > 0 || mant >= 4194304) return -1;
         track = mant;
       } else if (action > 0) {
         const v = frac === 0 ? mant : mant / pow10[frac];
@@ -766,9 +768,20 @@ export function parseDataBlock(b: Uint8Array, start: number, end: number, layout
     }
     if (c === 10) i++;
     else if (c === 13 && i + 1 < end && b[i + 1] === 10) i += 2;
-    else return null;
-    if (field !== fieldCount || track < 0) return null;
+    else return -1;
+    if (field !== fieldCount || track < 0) return -1;
     trackIds[k] = track;
+    return i;
+  };
+  while (i < end) {
+    if (k < cap) i = line(i, k);
+    if (k === cap || i < 0) {
+      if (pool) pool.push(trackIds.buffer, ...cols.map((c) => c.buffer));
+      if (i < 0 || exactRows !== undefined) return null;
+      let lines = 0;
+      for (let p = b.indexOf(10, start); p >= 0 && p < end; p = b.indexOf(10, p + 1)) lines++;
+      return parseDataBlock(b, start, end, layout, pool, lines);
+    }
     k++;
   }
   const values: ParsedBlock['values'] = {};
