@@ -171,10 +171,26 @@ export function createDepositingRepository(db: Db) {
     async recordDownload(values: typeof downloadEvent.$inferInsert) {
       await db.insert(downloadEvent).values(values);
     },
-    async downloadCount(releaseIds: string[]) {
-      if (!releaseIds.length) return 0;
-      const [row] = await db.select({ n: sql<number>`count(*)` }).from(downloadEvent).where(inArray(downloadEvent.releaseId, releaseIds));
-      return Number(row?.n ?? 0);
+    /**
+     * Download counts following the COUNTER Code of Practice, Release 5:
+     * total = requests after double-click filtering (the same visitor and item
+     * again within 30 s counts once); unique = one per visitor, item and day.
+     */
+    async downloadCounts(releaseIds: string[]): Promise<{ total: number; unique: number }> {
+      if (!releaseIds.length) return { total: 0, unique: 0 };
+      const ids = sql.join(releaseIds.map((id) => sql`${id}`), sql`, `);
+      const result = await db.execute<{ total: number; unique: number }>(sql`
+        with e as (
+          select visitor_key, coalesce(file_name, '') as item, created_at,
+                 lag(created_at) over (partition by release_id, visitor_key, coalesce(file_name, '') order by created_at) as previous,
+                 release_id
+          from download_event where release_id in (${ids})
+        )
+        select count(*) filter (where previous is null or created_at - previous > interval '30 seconds')::int as total,
+               count(distinct (release_id, visitor_key, item, date_trunc('day', created_at)))::int as unique
+        from e`);
+      const row = (result as unknown as { rows: Array<{ total: number; unique: number }> }).rows[0];
+      return { total: Number(row?.total ?? 0), unique: Number(row?.unique ?? 0) };
     },
     async setBundleKey(id: string, bundleKey: string) {
       await db.update(release).set({ bundleKey }).where(eq(release.id, id));

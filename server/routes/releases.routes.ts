@@ -1,5 +1,6 @@
 import { z } from 'zod';
-import type { RequestHandler, Response } from 'express';
+import { createHash } from 'node:crypto';
+import type { Request, RequestHandler, Response } from 'express';
 import { access, type Actor } from '../middleware/authorize';
 import type { CitationFormat, ReleasesService } from '../services/releases.service';
 import type { DownloadsService } from '../services/downloads.service';
@@ -10,7 +11,13 @@ const suffix = z.string().min(4).max(60);
 const format = z.enum(['bibtex', 'ris', 'csl-json', 'cff']);
 
 export function releasesRoutes(svc: ReleasesService, downloads: DownloadsService) {
-  const viewer = (res: Response) => ({ userId: (res.locals.actor as Actor | undefined)?.user.id ?? null });
+  const viewer = (res: Response, req?: Request) => {
+    const userId = (res.locals.actor as Actor | undefined)?.user.id ?? null;
+    // COUNTER's session rule for visitors who are not signed in: address + browser, per day.
+    const day = new Date().toISOString().slice(0, 10);
+    const visitorKey = userId ? `user:${userId}` : `anon:${createHash('sha256').update(`${req?.ip}|${req?.headers['user-agent'] ?? ''}|${day}`).digest('hex').slice(0, 32)}`;
+    return { userId, visitorKey };
+  };
   return [
     route({
       method: 'get', path: '/api/releases/:suffix', access: access.public, summary: "A release's landing page: metadata, files, statistics, versions, citation",
@@ -22,11 +29,11 @@ export function releasesRoutes(svc: ReleasesService, downloads: DownloadsService
     }),
     route({
       method: 'get', path: '/api/releases/:suffix/files/:fileName/download', access: access.public, summary: 'Download one file: a short-lived presigned URL, after the access check (302)',
-      handler: async (req, res) => res.redirect(302, await downloads.fileUrl(suffix.parse(req.params.suffix), z.string().min(1).max(500).parse(req.params.fileName), viewer(res))),
+      handler: async (req, res) => res.redirect(302, await downloads.fileUrl(suffix.parse(req.params.suffix), z.string().min(1).max(500).parse(req.params.fileName), viewer(res, req))),
     }),
     route({
       method: 'get', path: '/api/releases/:suffix/bundle', access: access.public, summary: 'Download the BagIt bundle (ZIP) of the release (302 to a presigned URL)',
-      handler: async (req, res) => res.redirect(302, await downloads.bundleUrl(suffix.parse(req.params.suffix), viewer(res))),
+      handler: async (req, res) => res.redirect(302, await downloads.bundleUrl(suffix.parse(req.params.suffix), viewer(res, req))),
     }),
     route({
       method: 'get', path: '/api/releases/:suffix/citation/:format', access: access.public, summary: 'The citation as BibTeX, RIS, CSL-JSON or CITATION.cff',

@@ -20,7 +20,7 @@ type Deps = {
   grants: { hasGrant(userId: string, datasetId: string, releaseId: string): Promise<boolean> };
   repo: DepositingRepository; labs: LabsRepository; uploads: MultipartUploads; store: ObjectStore; doiPrefix: string; publicBaseUrl: string; log: Logger; now?: () => Date };
 
-type Viewer = { userId: string | null };
+type Viewer = { userId: string | null; visitorKey?: string };
 
 /**
  * Who may take a release's bytes, and how: every byte leaves through a
@@ -60,7 +60,7 @@ export function createDownloadsService(d: Deps) {
       const rel = await releaseOr404(suffix);
       const verdict = await access(rel, viewer);
       const all = await d.repo.releasesOf(rel.datasetId);
-      return { ...verdict, bundleReady: !!rel.bundleKey, downloads: await d.repo.downloadCount(all.map((r) => r.id)) };
+      return { ...verdict, bundleReady: !!rel.bundleKey, downloads: await d.repo.downloadCounts(all.map((r) => r.id)) };
     },
 
     async fileUrl(suffix: string, fileName: string, viewer: Viewer) {
@@ -69,7 +69,7 @@ export function createDownloadsService(d: Deps) {
       if (!verdict.allowed) throw new AppError('no_access', verdict.reason, viewer.userId ? 403 : 401);
       const file = (await d.repo.releaseFiles(rel.id)).find((f) => f.fileName === fileName);
       if (!file) throw notFound('The file');
-      await d.repo.recordDownload({ id: randomUUID(), releaseId: rel.id, fileName, userId: viewer.userId });
+      await d.repo.recordDownload({ id: randomUUID(), releaseId: rel.id, fileName, userId: viewer.userId, visitorKey: viewer.visitorKey ?? viewer.userId });
       return d.uploads.signDownload(file.objectKey, file.fileName, URL_SECONDS);
     },
 
@@ -78,7 +78,7 @@ export function createDownloadsService(d: Deps) {
       const verdict = await access(rel, viewer);
       if (!verdict.allowed) throw new AppError('no_access', verdict.reason, viewer.userId ? 403 : 401);
       if (!rel.bundleKey) throw new AppError('bundle_pending', 'The bundle of this release is still being put together; try again in a minute.', 409);
-      await d.repo.recordDownload({ id: randomUUID(), releaseId: rel.id, fileName: null, userId: viewer.userId });
+      await d.repo.recordDownload({ id: randomUUID(), releaseId: rel.id, fileName: null, userId: viewer.userId, visitorKey: viewer.visitorKey ?? viewer.userId });
       return d.uploads.signDownload(rel.bundleKey, `${rel.suffix}.zip`, URL_SECONDS);
     },
 

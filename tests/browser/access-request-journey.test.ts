@@ -81,6 +81,10 @@ describe('browser: request access to a restricted release', () => {
     expect(download.suggestedFilename()).toBe(`${rel.suffix}.zip`);
     await page.goto(`${app.url}/account`);
     await page.getByTestId('my-access').getByText('Access active').waitFor();
+    // A token for scripts, shown once.
+    await page.getByLabel('Token name').fill('analysis notebook');
+    await page.getByRole('button', { name: 'Create token' }).click();
+    expect(await page.getByTestId('new-token').textContent()).toMatch(/^coh_/);
     await snap(page, 'access-04-account');
     await stranger.close();
   });

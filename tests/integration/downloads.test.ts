@@ -1,4 +1,8 @@
 import { createHash } from 'node:crypto';
+import { execFileSync } from 'node:child_process';
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startTestApp, type TestApp } from '../support/test-app';
 import { signInDemo, signUpAndVerify } from '../support/accounts';
@@ -76,12 +80,26 @@ describe('release bundles in BagIt layout (RFC 8493)', () => {
     for (const [digest, path] of tags) expect(digest).toBe(sha(zip.get(root + path)!));
     expect(text('data/metadata/README.txt')).toContain(rel.doi);
 
+    // The same checks with Debian's own tools: unzip -t, then sha256sum -c / sha512sum -c inside the bag.
+    const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'cohesia-bag-'));
+    fs.writeFileSync(path.join(dir, 'bundle.zip'), got.body!);
+    expect(execFileSync('unzip', ['-t', 'bundle.zip'], { cwd: dir }).toString()).toMatch(/No errors detected/);
+    execFileSync('unzip', ['-q', 'bundle.zip'], { cwd: dir });
+    const bag = path.join(dir, rel.suffix);
+    expect(execFileSync('sha256sum', ['-c', 'manifest-sha256.txt'], { cwd: bag }).toString()).not.toMatch(/FAILED/);
+    expect(execFileSync('sha512sum', ['-c', 'manifest-sha512.txt'], { cwd: bag }).toString()).not.toMatch(/FAILED/);
+    expect(execFileSync('sha256sum', ['-c', 'tagmanifest-sha256.txt'], { cwd: bag }).toString()).not.toMatch(/FAILED/);
+    fs.rmSync(dir, { recursive: true, force: true });
+
     // Single files: presigned, named, counted.
     const one = await follow(visitor, `/api/releases/${rel.suffix}/files/swarm.csv.gz/download`);
     expect(one.status).toBe(302);
     expect(one.headers.get('content-disposition')).toContain('filename="swarm.csv.gz"');
     expect(one.body!.equals(traj)).toBe(true);
-    expect((await visitor.get(`/api/releases/${rel.suffix}/access`)).json.downloads).toBe(2);
+    // COUNTER Release 5: a repeat within 30 s is one request; unique = per visitor, item and day.
+    await visitor.get(`/api/releases/${rel.suffix}/files/swarm.csv.gz/download`);
+    await depositor.get(`/api/releases/${rel.suffix}/files/swarm.csv.gz/download`);
+    expect((await visitor.get(`/api/releases/${rel.suffix}/access`)).json.downloads).toEqual({ total: 3, unique: 3 });
     expect((await visitor.get(`/api/releases/${rel.suffix}/files/nope.csv/download`)).status).toBe(404);
   });
 

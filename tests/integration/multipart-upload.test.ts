@@ -40,4 +40,16 @@ describe('multipart uploads through presigned URLs (real s3rver over HTTP)', () 
     await uploads.abort(key, uploadId);
     expect(await uploads.size(key)).toBeNull();
   });
+
+  it('refuses a presigned download URL once it has expired', async () => {
+    const key = `test/${Date.now()}/expiring.txt`;
+    const uploadId = await uploads.start(key, 'text/plain');
+    const [{ url }] = await uploads.signParts(key, uploadId, [1]);
+    const put = await fetch(url, { method: 'PUT', body: Buffer.from('short-lived') });
+    await uploads.complete(key, uploadId, [{ partNumber: 1, etag: put.headers.get('etag')! }]);
+    const link = await uploads.signDownload(key, 'expiring.txt', 1);
+    expect((await fetch(link)).status).toBe(200);
+    await new Promise((r) => setTimeout(r, 2100));
+    expect((await fetch(link)).status).toBe(403);
+  });
 });

@@ -192,6 +192,8 @@ export const downloadEvent = pgTable(
     // Null for the whole bundle.
     fileName: text(),
     userId: text(),
+    // The signed-in user, or a one-day hash of address and browser: what "unique" counts (COUNTER Release 5).
+    visitorKey: text(),
     createdAt: timestamp({ withTimezone: true }).defaultNow().notNull(),
   },
   (t) => [index('download_event_release_idx').on(t.releaseId)],

@@ -8,6 +8,7 @@ import { useSearchParams } from 'react-router-dom';
 import { Section } from '../../components/page';
 import { useMyAccess } from '../../features/access/api/get-my-access';
 import { MyAccessList } from '../../features/access/components/my-access-list';
+import { ApiTokens } from '../../features/account/components/api-tokens';
 
 export function Component() {
   return <RequireSession>{() => <Account />}</RequireSession>;
@@ -23,6 +24,9 @@ function Account() {
       <div className="mt-10">
         <Section title="Access to restricted data">
           <MyAccess />
+        </Section>
+        <Section title="API tokens for scripts">
+          <ApiTokens />
         </Section>
       </div>
     </Page>

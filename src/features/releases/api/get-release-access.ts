@@ -1,7 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 
-export type ReleaseAccess = { allowed: boolean; reason: string; bundleReady: boolean; downloads: number };
+export type ReleaseAccess = { allowed: boolean; reason: string; bundleReady: boolean; downloads: { total: number; unique: number } };
 
 export const getReleaseAccess = (suffix: string) => api.get<ReleaseAccess>(`/api/releases/${encodeURIComponent(suffix)}/access`);
 export const releaseAccessQueryOptions = (suffix: string) =>

@@ -45,7 +45,7 @@ export function ReleaseFiles({ suffix, files }: { suffix: string; files: Array<{
         </table>
         <p className="px-3 py-2 text-xs text-ink/60">
           The SHA-256 checksums let anyone verify a copy of these files.
-          {access.data ? ` Downloaded ${access.data.downloads.toLocaleString('en-GB')} times (all versions).` : ''}
+          {access.data ? ` Downloads, all versions: ${access.data.downloads.total.toLocaleString('en-GB')} (${access.data.downloads.unique.toLocaleString('en-GB')} unique; counted as the COUNTER Code of Practice asks).` : ''}
         </p>
       </div>
     </div>

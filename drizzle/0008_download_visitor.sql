@@ -1,0 +1,1 @@
+ALTER TABLE "download_event" ADD COLUMN "visitor_key" text;
