@@ -45,8 +45,7 @@ describe('browser: request access to a restricted release', () => {
     await page.getByLabel('E-mail address').fill('dana.whitcombe@saltmarsh-uni.example');
     await page.getByLabel('Password').fill('demo-swarm-2026');
     await page.getByRole('button', { name: 'Sign in' }).click();
-    await page.waitForURL(`**/releases/${rel.suffix}`);
-
+    // Back on the release page (a client-side navigation: wait for its content, not a load event).
     const form = page.getByRole('form', { name: 'Request access' });
     await form.getByTestId('terms').waitFor();
     await form.getByRole('button', { name: 'Send the request' }).click();

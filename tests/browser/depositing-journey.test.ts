@@ -20,7 +20,7 @@ async function signIn(page: Page, email: string) {
   await page.getByLabel('E-mail address').fill(email);
   await page.getByLabel('Password').fill('demo-swarm-2026');
   await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL('**/labs');
+  await page.waitForURL('**/labs', { waitUntil: 'commit' });
 }
 
 describe('browser: deposit a dataset, publish it, cite it', () => {
@@ -35,7 +35,7 @@ describe('browser: deposit a dataset, publish it, cite it', () => {
     await page.getByLabel('Title').fill('Midge swarm over the reed bed, browser test');
     await page.getByLabel('Short description').fill('Deposited by the browser test. Synthetic data.');
     await page.getByRole('button', { name: /Create dataset/ }).click();
-    await page.waitForURL('**/drafts/**');
+    await page.waitForURL('**/drafts/**', { waitUntil: 'commit' });
 
     // Drag and drop a header-less file onto the drop zone.
     const { readFileSync } = await import('node:fs');
@@ -101,7 +101,7 @@ describe('browser: deposit a dataset, publish it, cite it', () => {
     await cp.getByLabel('Release notes (optional)').fill('First release.');
     await snap(cp, 'dep-06-review');
     await cp.getByRole('button', { name: 'Publish as a release' }).click();
-    await cp.waitForURL('**/releases/**');
+    await cp.waitForURL('**/releases/**', { waitUntil: 'commit' });
     const releasePath = new URL(cp.url()).pathname;
     await curator.close();
 
@@ -119,7 +119,7 @@ describe('browser: deposit a dataset, publish it, cite it', () => {
     expect(await vp.evaluate(() => navigator.clipboard.readText())).toContain(`doi = {${doi}}`);
     await snap(vp, 'dep-07-landing');
     await vp.goto(`${app.url}/doi/${doi.toLowerCase()}`);
-    await vp.waitForURL(`**${releasePath}`);
+    await vp.waitForURL(`**${releasePath}`, { waitUntil: 'commit' });
     await visitor.close();
   });
 
@@ -130,7 +130,7 @@ describe('browser: deposit a dataset, publish it, cite it', () => {
     await page.goto(`${app.url}/labs/fenmoor-swarm-ecology/datasets/new`);
     await page.getByLabel('Title').fill('Autosave test');
     await page.getByRole('button', { name: /Create dataset/ }).click();
-    await page.waitForURL('**/drafts/**');
+    await page.waitForURL('**/drafts/**', { waitUntil: 'commit' });
     const form = page.getByRole('form', { name: 'Dataset metadata' });
 
     // The network drops every save.

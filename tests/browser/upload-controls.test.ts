@@ -24,11 +24,11 @@ describe('browser: upload controls', () => {
     await page.getByLabel('E-mail address').fill('jun.haverly@tidewater.example');
     await page.getByLabel('Password').fill('demo-swarm-2026');
     await page.getByRole('button', { name: 'Sign in' }).click();
-    await page.waitForURL('**/labs');
+    await page.waitForURL('**/labs', { waitUntil: 'commit' });
     await page.goto(`${app.url}/labs/tidewater-schooling/datasets/new`);
     await page.getByLabel('Title').fill('Upload controls test');
     await page.getByRole('button', { name: /Create dataset/ }).click();
-    await page.waitForURL('**/drafts/**');
+    await page.waitForURL('**/drafts/**', { waitUntil: 'commit' });
     await page.getByRole('combobox').first().selectOption('supplementary');
 
     // Part uploads go straight to the object store: slow them down, and fail the first try of part 2.
