@@ -26,5 +26,6 @@ export const paths = {
   datasetLanding: (suffix: string) => `/datasets/${suffix}`,
   resolveDoi: (doi: string) => `/doi/${doi}`,
   labAccessRequests: (slug: string) => `/labs/${encodeURIComponent(slug)}/access-requests`,
+  apiDocs: '/api-docs',
   mailbox: '/dev/mailbox',
 } as const;

@@ -81,7 +81,8 @@ export function Layout() {
       </main>
       <footer className="border-t border-mist bg-white">
         <div className="mx-auto max-w-6xl px-4 py-4 text-xs text-ink/70">
-          Cohesia — trajectory data of animal groups, deposited by labs, released with identifiers, compared across studies.
+          Cohesia — trajectory data of animal groups, deposited by labs, released with identifiers, compared across studies. ·{' '}
+          <Link to={paths.apiDocs}>API for scripts</Link>
         </div>
       </footer>
     </div>

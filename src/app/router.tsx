@@ -29,6 +29,7 @@ const router = createBrowserRouter([
       { path: '/admin/plans', lazy: () => import('./routes/admin-plans') },
       { path: '/releases/:suffix', lazy: () => import('./routes/release') },
       { path: '/datasets/:suffix', lazy: () => import('./routes/dataset-landing') },
+      { path: '/api-docs', lazy: () => import('./routes/api-docs') },
       { path: '/dev/mailbox', lazy: () => import('./routes/mailbox') },
       { path: '*', lazy: () => import('./routes/not-found') },
     ],
