@@ -231,6 +231,10 @@ describe('OpenAPI description', () => {
       expect(op, `${r.method} ${r.path}`).toBeTruthy();
       expect(op.description).toMatch(/^Who may call it/);
     }
+    // Validated against the OpenAPI 3.1 specification by @readme/openapi-parser.
+    const { validate } = await import('@readme/openapi-parser');
+    const result = await validate(structuredClone(doc));
+    expect(result.valid, JSON.stringify(result)).toBe(true);
     const create = doc.paths['/api/labs'].post;
     expect(create.requestBody.content['application/json'].schema.required).toEqual(expect.arrayContaining(['name', 'slug']));
   });
