@@ -138,3 +138,26 @@ describe('storage usage by place', () => {
     expect(total).toBe((usage.usage ?? usage).usedBytes);
   });
 });
+
+describe('embargo with a clock you can set', () => {
+  it('keeps the files closed before the date and opens them at the date, for the same release', async () => {
+    const rel = await publish('Embargo clock', { level: 'embargoed', embargoUntil: '2031-05-01' }, [['swarm.csv.gz', fixture('vicsek-flock-3d.csv.gz')]]);
+    const { createDownloadsService } = await import('../../server/services/downloads.service');
+    const { createDepositingRepository } = await import('../../server/repositories/depositing.repository');
+    const { createLabsRepository } = await import('../../server/repositories/labs.repository');
+    const at = (iso: string) =>
+      createDownloadsService({
+        grants: { hasGrant: async () => false },
+        repo: createDepositingRepository(app.database.db),
+        labs: createLabsRepository(app.database.db),
+        uploads: {} as never,
+        store: {} as never,
+        doiPrefix: '10.99999',
+        publicBaseUrl: app.url,
+        log: {} as never,
+        now: () => new Date(iso),
+      });
+    expect((await at('2031-04-30T23:59:59Z').accessBySuffix(rel.suffix, { userId: null })).allowed).toBe(false);
+    expect((await at('2031-05-01T00:00:00Z').accessBySuffix(rel.suffix, { userId: null })).allowed).toBe(true);
+  });
+});
