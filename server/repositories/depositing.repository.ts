@@ -192,6 +192,15 @@ export function createDepositingRepository(db: Db) {
       const row = (result as unknown as { rows: Array<{ total: number; unique: number }> }).rows[0];
       return { total: Number(row?.total ?? 0), unique: Number(row?.unique ?? 0) };
     },
+    /** Downloads of a lab's releases per month (UTC), all kinds together. */
+    async monthlyDownloads(labId: string) {
+      const result = await db.execute<{ month: string; downloads: number }>(sql`
+        select to_char(date_trunc('month', e.created_at), 'YYYY-MM') as month, count(*)::int as downloads
+        from download_event e join release r on r.id = e.release_id join dataset d on d.id = r.dataset_id
+        where d.lab_id = ${labId}
+        group by 1 order by 1`);
+      return (result as unknown as { rows: Array<{ month: string; downloads: number }> }).rows.map((r) => ({ month: r.month, downloads: Number(r.downloads) }));
+    },
     async setBundleKey(id: string, bundleKey: string) {
       await db.update(release).set({ bundleKey }).where(eq(release.id, id));
     },

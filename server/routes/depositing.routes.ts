@@ -35,6 +35,10 @@ export function depositingRoutes(svc: DepositingService) {
       handler: async (_req, res, body) => res.status(201).json(await svc.createDataset(actorOf(res), res.locals.lab!, body)),
     }),
     route({
+      method: 'get', path: '/api/labs/:slug/downloads', access: canRead, summary: "Downloads of the lab's releases per month",
+      handler: async (_req, res) => res.json(await svc.downloadsByMonth(res.locals.lab!)),
+    }),
+    route({
       method: 'get', path: '/api/labs/:slug/review-queue', access: access.lab({ release: ['review'] }), summary: 'Drafts submitted for review, oldest first',
       handler: async (_req, res) => res.json(await svc.reviewQueue(res.locals.lab!)),
     }),

@@ -124,6 +124,11 @@ export function createDepositingService(d: Deps) {
       }));
     },
 
+    /** The lab's download counts per month, for its dashboard. */
+    async downloadsByMonth(lab: LabContext) {
+      return repo.monthlyDownloads(lab.id);
+    },
+
     /** Drafts waiting for a curator of the lab, oldest first. */
     async reviewQueue(lab: LabContext) {
       const rows = await repo.draftsInState(lab.id, 'submitted');

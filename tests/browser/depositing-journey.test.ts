@@ -31,6 +31,7 @@ describe('browser: deposit a dataset, publish it, cite it', () => {
 
     await page.goto(`${app.url}/labs/fenmoor-swarm-ecology`);
     await page.getByRole('link', { name: 'Datasets and drafts' }).click();
+    await page.getByRole('heading', { name: 'Downloads' }).waitFor();
     await page.getByRole('link', { name: 'New dataset' }).click();
     await page.getByLabel('Title').fill('Midge swarm over the reed bed, browser test');
     await page.getByLabel('Short description').fill('Deposited by the browser test. Synthetic data.');

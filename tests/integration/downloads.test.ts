@@ -101,6 +101,11 @@ describe('release bundles in BagIt layout (RFC 8493)', () => {
     await depositor.get(`/api/releases/${rel.suffix}/files/swarm.csv.gz/download`);
     expect((await visitor.get(`/api/releases/${rel.suffix}/access`)).json.downloads).toEqual({ total: 3, unique: 3 });
     expect((await visitor.get(`/api/releases/${rel.suffix}/files/nope.csv/download`)).status).toBe(404);
+    // The lab's dashboard counts them per month.
+    const months = (await depositor.get(`/api/labs/${LAB}/downloads`)).json;
+    expect(months.at(-1)).toMatchObject({ month: new Date().toISOString().slice(0, 7) });
+    expect(months.at(-1).downloads).toBeGreaterThanOrEqual(4);
+    expect((await visitor.get(`/api/labs/${LAB}/downloads`)).status).toBe(401);
   });
 
   it('serves restricted files only to the lab, and refuses visitors and strangers clearly', async () => {

@@ -1,4 +1,8 @@
+import { lazy, Suspense } from 'react';
 import { Link, useParams } from 'react-router-dom';
+import { Section } from '../../components/page';
+import { Loading } from '../../components/query-state';
+import { useLabDownloads } from '../../features/depositing/api/get-lab-downloads';
 import { Page } from '../../components/page';
 import { LinkButton } from '../../components/button';
 import { QueryState } from '../../components/query-state';
@@ -8,6 +12,9 @@ import { DatasetList } from '../../features/depositing/components/dataset-list';
 import { labRoleCan } from '../../../shared/lab-roles';
 import { RequireSession } from '../require-session';
 import { paths } from '../paths';
+
+// The chart library loads only where a chart is shown.
+const DownloadsChart = lazy(() => import('../../features/depositing/components/downloads-chart'));
 
 export function Component() {
   const { slug = '' } = useParams();
@@ -32,9 +39,25 @@ function LabDatasets({ slug }: { slug: string }) {
             actions={labRoleCan(l.myRole, { dataset: ['create'] }) ? <LinkButton to={paths.newDataset(slug)}>New dataset</LinkButton> : null}
           >
             <QueryState query={datasets}>{(d) => <DatasetList slug={slug} datasets={d} canCreate={labRoleCan(l.myRole, { dataset: ['create'] })} />}</QueryState>
+            <Section title="Downloads">
+              <Downloads slug={slug} />
+            </Section>
           </Page>
         )
       }
+    </QueryState>
+  );
+}
+
+function Downloads({ slug }: { slug: string }) {
+  const q = useLabDownloads(slug);
+  return (
+    <QueryState query={q}>
+      {(data) => (
+        <Suspense fallback={<Loading />}>
+          <DownloadsChart data={data} />
+        </Suspense>
+      )}
     </QueryState>
   );
 }
