@@ -201,6 +201,19 @@ export function createDepositingRepository(db: Db) {
         group by 1 order by 1`);
       return (result as unknown as { rows: Array<{ month: string; downloads: number }> }).rows.map((r) => ({ month: r.month, downloads: Number(r.downloads) }));
     },
+    /** Published releases, newest first, with their lab; keyset pagination on (published_at, id). */
+    async listReleases(opts: { limit: number; before?: { publishedAt: Date; id: string } }) {
+      const cond = opts.before
+        ? sql`(${release.publishedAt}, ${release.id}) < (${opts.before.publishedAt.toISOString()}::timestamptz, ${opts.before.id})`
+        : sql`true`;
+      return db
+        .select({ release, datasetSuffix: dataset.suffix, labId: dataset.labId })
+        .from(release)
+        .innerJoin(dataset, eq(release.datasetId, dataset.id))
+        .where(and(cond, sql`${release.withdrawnAt} is null`))
+        .orderBy(desc(release.publishedAt), desc(release.id))
+        .limit(opts.limit);
+    },
     async setBundleKey(id: string, bundleKey: string) {
       await db.update(release).set({ bundleKey }).where(eq(release.id, id));
     },

@@ -20,6 +20,13 @@ export function releasesRoutes(svc: ReleasesService, downloads: DownloadsService
   };
   return [
     route({
+      method: 'get', path: '/api/releases', access: access.public, summary: 'The catalogue: published releases, newest first (cursor pagination)',
+      handler: async (req, res) => {
+        const q = z.object({ limit: z.coerce.number().int().min(1).max(100).default(20), cursor: z.string().max(200).optional() }).parse(req.query);
+        res.json(await svc.list(q.limit, q.cursor));
+      },
+    }),
+    route({
       method: 'get', path: '/api/releases/:suffix', access: access.public, summary: "A release's landing page: metadata, files, statistics, versions, citation",
       handler: async (req, res) => res.json(await svc.landing(suffix.parse(req.params.suffix))),
     }),

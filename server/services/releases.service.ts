@@ -88,6 +88,44 @@ export function createReleasesService({ repo, labs, doiPrefix, publicBaseUrl }: 
       };
     },
 
+    /** The catalogue for scripts and the home page: newest releases first, with a cursor for the next page. */
+    async list(limit: number, cursor?: string) {
+      let before: { publishedAt: Date; id: string } | undefined;
+      if (cursor) {
+        const [at, id] = Buffer.from(cursor, 'base64url').toString('utf8').split('|');
+        if (!id || Number.isNaN(Date.parse(at))) throw new AppError('bad_cursor', 'This page cursor is not valid.', 400);
+        before = { publishedAt: new Date(at), id };
+      }
+      const rows = await repo.listReleases({ limit: limit + 1, before });
+      const page = rows.slice(0, limit);
+      const labsById = new Map<string, { name: string; slug: string }>();
+      for (const r of page) {
+        if (labsById.has(r.labId)) continue;
+        const l = await labs.findById(r.labId);
+        if (l) labsById.set(r.labId, { name: l.name, slug: l.slug });
+      }
+      const last = page.at(-1);
+      return {
+        items: page.map(({ release: r, labId }) => {
+          const m = r.metadata as Meta & { groupType?: string; dimension?: number; numberOfIndividuals?: number };
+          return {
+            suffix: r.suffix,
+            doi: r.doi,
+            title: r.title,
+            version: r.version,
+            publishedAt: r.publishedAt.toISOString(),
+            accessLevel: r.accessLevel,
+            lab: labsById.get(labId) ?? null,
+            species: (m.species ?? []).map((x) => x.name),
+            groupType: m.groupType ?? null,
+            dimension: m.dimension ?? null,
+            individuals: m.numberOfIndividuals ?? null,
+          };
+        }),
+        nextCursor: rows.length > limit && last ? Buffer.from(`${last.release.publishedAt.toISOString()}|${last.release.id}`).toString('base64url') : null,
+      };
+    },
+
     async citation(suffix: string, format: CitationFormat) {
       const { rel, dataset } = await load(suffix);
       const c = citations(citable(rel, dataset.suffix));

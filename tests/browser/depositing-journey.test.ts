@@ -121,7 +121,23 @@ describe('browser: deposit a dataset, publish it, cite it', () => {
     await snap(vp, 'dep-07-landing');
     await vp.goto(`${app.url}/doi/${doi.toLowerCase()}`);
     await vp.waitForURL(`**${releasePath}`, { waitUntil: 'commit' });
+    // The home page lists it among the recent releases.
+    await vp.goto(app.url);
+    await vp.getByTestId('release-list').getByRole('link', { name: 'Midge swarm over the reed bed, browser test' }).waitFor();
     await visitor.close();
+
+    // The lab lead withdraws it: the page becomes a tombstone that keeps the citation.
+    const leadContext = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    const lp = await leadContext.newPage();
+    await signIn(lp, 'ilse.marten@fenmoor.example');
+    await lp.goto(`${app.url}${releasePath}`);
+    await lp.getByRole('button', { name: 'Withdraw this release…' }).click();
+    await lp.getByLabel('Reason readers will see').fill('A calibration error was found in camera 2.');
+    await lp.getByRole('button', { name: 'Withdraw', exact: true }).click();
+    await lp.getByText('This release was withdrawn on', { exact: false }).waitFor();
+    await lp.getByTestId('formatted-citation').waitFor();
+    await snap(lp, 'dep-09-tombstone');
+    await leadContext.close();
   });
 
   it('keeps typed metadata when saving fails, and saves it once the server answers again', async () => {

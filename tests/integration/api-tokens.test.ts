@@ -59,6 +59,11 @@ describe('API tokens for scripts', () => {
     expect(landing.json.results[0].result.summary.tracks).toBeGreaterThan(0);
     const dl = await read('GET', `/api/releases/${pub.json.suffix}/files/swarm.csv.gz/download`);
     expect(dl.status).toBe(302);
+    // The catalogue lists it, newest first, page by page.
+    const first = await read('GET', '/api/releases?limit=1');
+    expect(first.json.items[0]).toMatchObject({ suffix: pub.json.suffix, title: 'Scripted deposit', lab: { slug: 'fenmoor-swarm-ecology' } });
+    expect(first.json.nextCursor === null || typeof first.json.nextCursor === 'string').toBe(true);
+    expect((await read('GET', '/api/releases?cursor=garbage')).status).toBe(400);
     // A read token cannot write, manage tokens, or act as an admin.
     const write = await read('POST', '/api/labs/fenmoor-swarm-ecology/datasets', { title: 'Nope', summary: '' });
     expect(write.status).toBe(403);

@@ -1,6 +1,7 @@
 import { LinkButton } from '../../components/button';
 import { useSession } from '../../features/auth/api/get-session';
 import { paths } from '../paths';
+import { ReleaseList } from '../../features/releases/components/release-list';
 
 const steps = [
   { title: 'Deposit', text: 'Upload the trajectories of every individual in a group, as your tracking system wrote them. Cohesia checks each file and computes the field’s standard statistics on arrival.' },
@@ -34,6 +35,10 @@ export function Component() {
             )}
           </div>
         </div>
+      </section>
+      <section className="mx-auto max-w-4xl px-4 pt-10">
+        <h2 className="mb-4 text-xl font-bold">Recent releases</h2>
+        <ReleaseList />
       </section>
       <section className="mx-auto grid max-w-4xl gap-6 px-4 py-12 sm:grid-cols-2">
         {steps.map((s, i) => (

@@ -11,6 +11,9 @@ import { IngestReport } from '../../features/ingest-report/components/ingest-rep
 import { RequestAccessForm } from '../../features/access/components/request-access-form';
 import { useReleaseAccess } from '../../features/releases/api/get-release-access';
 import { useSession } from '../../features/auth/api/get-session';
+import { useLab } from '../../features/labs/api/get-lab';
+import { WithdrawPanel } from '../../features/releases/components/withdraw-panel';
+import { labRoleCan } from '../../../shared/lab-roles';
 import { paths } from '../paths';
 
 export function Component() {
@@ -140,6 +143,7 @@ function Landing({ r }: { r: ReleaseLanding }) {
       <Section title="How to cite">
         <CitationBox suffix={r.suffix} styles={r.citation.styles} />
       </Section>
+      {!r.withdrawn && r.dataset.lab ? <Withdraw labSlug={r.dataset.lab.slug} suffix={r.suffix} /> : null}
     </article>
   );
 }
@@ -161,4 +165,15 @@ function AccessRequestPanel({ suffix }: { suffix: string }) {
       <RequestAccessForm suffix={suffix} />
     </div>
   );
+}
+
+function Withdraw({ labSlug, suffix }: { labSlug: string; suffix: string }) {
+  const session = useSession();
+  const lab = useLab(labSlug);
+  const may = session.data?.role === 'admin' || labRoleCan(lab.data?.myRole, { lab: ['update'] });
+  return may ? (
+    <Section title="Withdrawal">
+      <WithdrawPanel labSlug={labSlug} suffix={suffix} />
+    </Section>
+  ) : null;
 }
