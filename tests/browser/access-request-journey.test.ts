@@ -1,35 +1,21 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { startTestApp, type TestApp } from '../support/test-app';
-import { launchBrowser, snap } from '../support/browser';
+import { describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { browserTestEnv, signInThroughForm, snap } from '../support/browser';
 import { signInDemo } from '../support/accounts';
 import { fixture, uploadFile, validMetadata, waitForFile } from '../support/depositing';
 
-let app: TestApp;
-let browser: Browser;
+const env = browserTestEnv();
 const LAB = 'fenmoor-swarm-ecology';
 
-beforeAll(async () => {
-  app = await startTestApp({ client: 'dist' });
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await app?.close();
-});
-
 async function signIn(page: Page, email: string, next?: string) {
-  await page.goto(`${app.url}/sign-in${next ? `?next=${encodeURIComponent(next)}` : ''}`);
-  await page.getByLabel('E-mail address').fill(email);
-  await page.getByLabel('Password').fill('demo-swarm-2026');
-  await page.getByRole('button', { name: 'Sign in' }).click();
+  await signInThroughForm(page, env.app.url, email, { next });
 }
 
 describe('browser: request access to a restricted release', () => {
   it('a stranger asks, a curator approves from the e-mail, the stranger downloads the bundle', async () => {
     // A restricted release of the lab, published through the API.
-    const depositor = await signInDemo(app, 'mina.throssel@fenmoor.example');
-    const curatorApi = await signInDemo(app, 'rafael.quist@fenmoor.example');
+    const depositor = await signInDemo(env.app, 'mina.throssel@fenmoor.example');
+    const curatorApi = await signInDemo(env.app, 'rafael.quist@fenmoor.example');
     const title = 'Restricted midge swarm for the access journey';
     const { draftId } = (await depositor.post(`/api/labs/${LAB}/datasets`, { title, summary: '' })).json;
     await depositor.put(`/api/labs/${LAB}/drafts/${draftId}/metadata`, { metadata: validMetadata({ title, access: { level: 'restricted' } }) });
@@ -37,11 +23,12 @@ describe('browser: request access to a restricted release', () => {
     await depositor.post(`/api/labs/${LAB}/drafts/${draftId}/submit`);
     const rel = (await curatorApi.post(`/api/labs/${LAB}/drafts/${draftId}/publish`, {})).json as { suffix: string };
 
-    const stranger = await browser.newContext({ viewport: { width: 1280, height: 900 }, acceptDownloads: true });
+    const stranger = await env.browser.newContext({ viewport: { width: 1280, height: 900 }, acceptDownloads: true });
     const page = await stranger.newPage();
-    await page.goto(`${app.url}/releases/${rel.suffix}`);
+    await page.goto(`${env.app.url}/releases/${rel.suffix}`);
     await page.getByText('shared on request', { exact: false }).first().waitFor();
-    await page.getByRole('link', { name: 'Sign in' }).last().click();
+    // The sign-in link of the request panel (it brings the reader back here), not the header's.
+    await page.getByText('to ask the lab for access').getByRole('link', { name: 'Sign in' }).click();
     await page.getByLabel('E-mail address').fill('dana.whitcombe@saltmarsh-uni.example');
     await page.getByLabel('Password').fill('demo-swarm-2026');
     await page.getByRole('button', { name: 'Sign in' }).click();
@@ -58,9 +45,9 @@ describe('browser: request access to a restricted release', () => {
     await page.getByText('Your request is with Fenmoor Swarm Ecology Group', { exact: false }).waitFor();
 
     // The curator follows the link in the e-mail and approves.
-    const mail = await app.mail.waitFor('rafael.quist@fenmoor.example', /Access request: Restricted midge swarm/);
+    const mail = await env.app.mail.waitFor('rafael.quist@fenmoor.example', /Access request: Restricted midge swarm/);
     const link = /https?:\/\/\S+/.exec(mail.text)![0];
-    const curator = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    const curator = await env.browser.newContext({ viewport: { width: 1280, height: 900 } });
     const cp = await curator.newPage();
     await signIn(cp, 'rafael.quist@fenmoor.example', new URL(link).pathname + new URL(link).search);
     const item = cp.getByTestId('access-request').filter({ hasText: 'Dana Whitcombe' });
@@ -71,14 +58,14 @@ describe('browser: request access to a restricted release', () => {
     await curator.close();
 
     // The stranger is told, and downloads the bundle.
-    await app.mail.waitFor('dana.whitcombe@saltmarsh-uni.example', /Access granted: Restricted midge swarm/);
+    await env.app.mail.waitFor('dana.whitcombe@saltmarsh-uni.example', /Access granted: Restricted midge swarm/);
     await page.reload();
     const bundle = page.getByTestId('bundle-link');
     await bundle.waitFor({ timeout: 30_000 });
     await snap(page, 'access-03-granted');
     const [download] = await Promise.all([page.waitForEvent('download'), bundle.click()]);
     expect(download.suggestedFilename()).toBe(`${rel.suffix}.zip`);
-    await page.goto(`${app.url}/account`);
+    await page.goto(`${env.app.url}/account`);
     await page.getByTestId('my-access').getByText('Access active').waitFor();
     // A token for scripts, shown once.
     await page.getByLabel('Token name').fill('analysis notebook');

@@ -1,28 +1,14 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { startTestApp, type TestApp } from '../support/test-app';
-import { launchBrowser, snap } from '../support/browser';
+import { describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { browserTestEnv, signInThroughForm, snap } from '../support/browser';
 import { CARDS } from '../support/billing';
 import { createQuotaService } from '../../server/services/quota.service';
 import { createLabsRepository } from '../../server/repositories/labs.repository';
 
-let app: TestApp;
-let browser: Browser;
-
-beforeAll(async () => {
-  app = await startTestApp({ client: 'dist' });
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await app?.close();
-});
+const env = browserTestEnv();
 
 async function signIn(page: Page, email: string) {
-  await page.goto(`${app.url}/sign-in`);
-  await page.getByLabel('E-mail address').fill(email);
-  await page.getByLabel('Password').fill('demo-swarm-2026');
-  await page.getByRole('button', { name: 'Sign in' }).click();
+  await signInThroughForm(page, env.app.url, email);
   await page.getByRole('button', { name: 'Sign out' }).waitFor();
 }
 
@@ -34,7 +20,7 @@ async function typeCard(page: Page, card: string) {
 
 describe('browser: storage plans and hosted checkout', () => {
   it('an admin adds a plan; a lab lead is declined, then upgrades with the success card and sees the new quota', async () => {
-    const context = await browser.newContext({ viewport: { width: 1200, height: 900 } });
+    const context = await env.browser.newContext({ viewport: { width: 1200, height: 900 } });
     const page = await context.newPage();
 
     // The platform admin adds a plan.
@@ -62,7 +48,7 @@ describe('browser: storage plans and hosted checkout', () => {
 
     // The lab lead opens storage and billing from the lab page.
     await signIn(page, 'ilse.marten@fenmoor.example');
-    await page.goto(`${app.url}/labs/fenmoor-swarm-ecology`);
+    await page.goto(`${env.app.url}/labs/fenmoor-swarm-ecology`);
     await page.getByRole('link', { name: 'Storage and billing' }).click();
     await page.getByRole('heading', { name: 'Storage and billing' }).waitFor();
     const meter = page.getByRole('meter');
@@ -91,8 +77,8 @@ describe('browser: storage plans and hosted checkout', () => {
     await page.getByText('€9.50').first().waitFor();
 
     // Some stored data and an upload in flight, through the same quota service the presign step uses.
-    const labId = (await createLabsRepository(app.database.db).findBySlug('fenmoor-swarm-ecology'))!.id;
-    const quota = createQuotaService({ db: app.database.db, freeTierBytes: 1e9, graceDays: 7 });
+    const labId = (await createLabsRepository(env.app.database.db).findBySlug('fenmoor-swarm-ecology'))!.id;
+    const quota = createQuotaService({ db: env.app.database.db, freeTierBytes: 1e9, graceDays: 7 });
     const r1 = await quota.reserve(labId, 12e9);
     await quota.confirm(r1.reservationId, { objectKey: 'demo/fenmoor/dusk-swarm-2026-06-14.csv.gz', sizeBytes: 11.6e9, sha256: null, mediaType: 'application/gzip' });
     const r2 = await quota.reserve(labId, 4e9);

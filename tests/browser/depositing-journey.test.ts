@@ -1,35 +1,21 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { startTestApp, type TestApp } from '../support/test-app';
-import { launchBrowser, snap } from '../support/browser';
+import { describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { browserTestEnv, signInThroughForm, snap } from '../support/browser';
 
-let app: TestApp;
-let browser: Browser;
-
-beforeAll(async () => {
-  app = await startTestApp({ client: 'dist' });
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await app?.close();
-});
+const env = browserTestEnv();
 
 async function signIn(page: Page, email: string) {
-  await page.goto(`${app.url}/sign-in`);
-  await page.getByLabel('E-mail address').fill(email);
-  await page.getByLabel('Password').fill('demo-swarm-2026');
-  await page.getByRole('button', { name: 'Sign in' }).click();
+  await signInThroughForm(page, env.app.url, email);
   await page.waitForURL('**/labs', { waitUntil: 'commit' });
 }
 
 describe('browser: deposit a dataset, publish it, cite it', () => {
   it('is clicked through by a depositor, a curator and a visitor', async () => {
-    const context = await browser.newContext({ viewport: { width: 1280, height: 900 }, permissions: ['clipboard-read', 'clipboard-write'] });
+    const context = await env.browser.newContext({ viewport: { width: 1280, height: 900 }, permissions: ['clipboard-read', 'clipboard-write'] });
     const page = await context.newPage();
     await signIn(page, 'mina.throssel@fenmoor.example');
 
-    await page.goto(`${app.url}/labs/fenmoor-swarm-ecology`);
+    await page.goto(`${env.app.url}/labs/fenmoor-swarm-ecology`);
     await page.getByRole('link', { name: 'Datasets and drafts' }).click();
     await page.getByRole('heading', { name: 'Downloads' }).waitFor();
     await page.getByRole('link', { name: 'New dataset' }).click();
@@ -93,9 +79,9 @@ describe('browser: deposit a dataset, publish it, cite it', () => {
     await context.close();
 
     // The curator publishes from the e-mailed link.
-    const mail = await app.mail.waitFor('rafael.quist@fenmoor.example', /Ready for review: Midge swarm over the reed bed/);
+    const mail = await env.app.mail.waitFor('rafael.quist@fenmoor.example', /Ready for review: Midge swarm over the reed bed/);
     const draftUrl = /https?:\/\/\S+/.exec(mail.text)![0];
-    const curator = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    const curator = await env.browser.newContext({ viewport: { width: 1280, height: 900 } });
     const cp = await curator.newPage();
     await signIn(cp, 'rafael.quist@fenmoor.example');
     await cp.goto(draftUrl);
@@ -107,9 +93,9 @@ describe('browser: deposit a dataset, publish it, cite it', () => {
     await curator.close();
 
     // A visitor (not signed in) reads the landing page, resolves the identifier and copies BibTeX.
-    const visitor = await browser.newContext({ viewport: { width: 1280, height: 900 }, permissions: ['clipboard-read', 'clipboard-write'] });
+    const visitor = await env.browser.newContext({ viewport: { width: 1280, height: 900 }, permissions: ['clipboard-read', 'clipboard-write'] });
     const vp = await visitor.newPage();
-    await vp.goto(`${app.url}${releasePath}`);
+    await vp.goto(`${env.app.url}${releasePath}`);
     await vp.getByRole('heading', { name: 'Midge swarm over the reed bed, browser test' }).waitFor();
     const doi = (await vp.locator('a.font-mono').first().textContent())!.trim();
     expect(doi).toMatch(/^10\.99999\/cx\.[0-9A-Z]{4}-[0-9A-Z]{5}\.v1$/);
@@ -119,18 +105,18 @@ describe('browser: deposit a dataset, publish it, cite it', () => {
     await vp.getByRole('button', { name: 'Copy BibTeX' }).click();
     expect(await vp.evaluate(() => navigator.clipboard.readText())).toContain(`doi = {${doi}}`);
     await snap(vp, 'dep-07-landing');
-    await vp.goto(`${app.url}/doi/${doi.toLowerCase()}`);
+    await vp.goto(`${env.app.url}/doi/${doi.toLowerCase()}`);
     await vp.waitForURL(`**${releasePath}`, { waitUntil: 'commit' });
     // The home page lists it among the recent releases.
-    await vp.goto(app.url);
+    await vp.goto(env.app.url);
     await vp.getByTestId('release-list').getByRole('link', { name: 'Midge swarm over the reed bed, browser test' }).waitFor();
     await visitor.close();
 
     // The lab lead withdraws it: the page becomes a tombstone that keeps the citation.
-    const leadContext = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    const leadContext = await env.browser.newContext({ viewport: { width: 1280, height: 900 } });
     const lp = await leadContext.newPage();
     await signIn(lp, 'ilse.marten@fenmoor.example');
-    await lp.goto(`${app.url}${releasePath}`);
+    await lp.goto(`${env.app.url}${releasePath}`);
     await lp.getByRole('button', { name: 'Withdraw this release…' }).click();
     await lp.getByLabel('Reason readers will see').fill('A calibration error was found in camera 2.');
     await lp.getByRole('button', { name: 'Withdraw', exact: true }).click();
@@ -141,10 +127,10 @@ describe('browser: deposit a dataset, publish it, cite it', () => {
   });
 
   it('keeps typed metadata when saving fails, and saves it once the server answers again', async () => {
-    const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    const context = await env.browser.newContext({ viewport: { width: 1280, height: 900 } });
     const page = await context.newPage();
     await signIn(page, 'mina.throssel@fenmoor.example');
-    await page.goto(`${app.url}/labs/fenmoor-swarm-ecology/datasets/new`);
+    await page.goto(`${env.app.url}/labs/fenmoor-swarm-ecology/datasets/new`);
     await page.getByLabel('Title').fill('Autosave test');
     await page.getByRole('button', { name: /Create dataset/ }).click();
     await page.waitForURL('**/drafts/**', { waitUntil: 'commit' });

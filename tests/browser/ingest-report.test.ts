@@ -1,28 +1,17 @@
 import fs from 'node:fs';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { startTestApp, type TestApp } from '../support/test-app';
-import { launchBrowser, snap } from '../support/browser';
+import { describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { browserTestEnv, signInThroughForm, snap } from '../support/browser';
 import { signInDemo } from '../support/accounts';
 import { fixture, uploadFile, waitForFile } from '../support/depositing';
 
 const LAB = 'fenmoor-swarm-ecology';
 const DEPOSITOR = 'mina.throssel@fenmoor.example';
-let app: TestApp;
-let browser: Browser;
-
-beforeAll(async () => {
-  app = await startTestApp({ client: 'dist' });
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await app?.close();
-});
+const env = browserTestEnv();
 
 /** A draft whose metadata gives the engine its frame rate, units and dimension, with one ingested file. */
 async function ingestedFile(name: string, metadata: Record<string, unknown>) {
-  const http = await signInDemo(app, DEPOSITOR);
+  const http = await signInDemo(env.app, DEPOSITOR);
   const title = `Ingest report: ${name}`;
   const created = await http.post(`/api/labs/${LAB}/datasets`, { title, summary: 'For the browser test of the ingest report.' });
   expect(created.status).toBe(201);
@@ -30,14 +19,11 @@ async function ingestedFile(name: string, metadata: Record<string, unknown>) {
   expect((await http.put(`/api/labs/${LAB}/drafts/${draftId}/metadata`, { metadata: { title, units: 'm', ...metadata } })).status).toBe(200);
   const fileId = await uploadFile(http, LAB, draftId, name, fixture(name));
   expect(await waitForFile(http, LAB, draftId, fileId)).toMatchObject({ state: 'ready', status: 'ok' });
-  return `${app.url}/labs/${LAB}/drafts/${draftId}/files/${fileId}`;
+  return `${env.app.url}/labs/${LAB}/drafts/${draftId}/files/${fileId}`;
 }
 
 async function signIn(page: Page) {
-  await page.goto(`${app.url}/sign-in`);
-  await page.getByLabel('E-mail address').fill(DEPOSITOR);
-  await page.getByLabel('Password').fill('demo-swarm-2026');
-  await page.getByRole('button', { name: 'Sign in' }).click();
+  await signInThroughForm(page, env.app.url, DEPOSITOR);
   await page.getByRole('button', { name: 'Sign out' }).waitFor();
 }
 
@@ -48,7 +34,7 @@ const seconds = (text: string) => Number(/t = (-?[\d.]+) s/.exec(text)?.[1]);
 describe('browser: the ingest report of a trajectory file', () => {
   it('draws every figure, exports them, and plays the quick look', async () => {
     const url = await ingestedFile('trapped-langevin-swarm.csv.gz', { frameRate: 100, dimension: 3 });
-    const context = await browser.newContext({ viewport: { width: 1280, height: 900 }, acceptDownloads: true });
+    const context = await env.browser.newContext({ viewport: { width: 1280, height: 900 }, acceptDownloads: true });
     const page = await context.newPage();
     const errors: string[] = [];
     page.on('pageerror', (e) => errors.push(e.message + e.stack));
@@ -135,7 +121,7 @@ describe('browser: the ingest report of a trajectory file', () => {
     await context.close();
 
     // Without WebGL the player falls back to the x–y projection, says so, and still plays.
-    const noGl = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    const noGl = await env.browser.newContext({ viewport: { width: 1280, height: 900 } });
     await noGl.addInitScript(() => {
       const getContext = HTMLCanvasElement.prototype.getContext;
       HTMLCanvasElement.prototype.getContext = function (this: HTMLCanvasElement, kind: string, ...rest: unknown[]) {
@@ -159,7 +145,7 @@ describe('browser: the ingest report of a trajectory file', () => {
 
   it('draws a 2D file in the plane, with its pair events on a timeline', async () => {
     const url = await ingestedFile('vicsek-flock-2d.csv.gz', { frameRate: 25, dimension: 2 });
-    const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    const context = await env.browser.newContext({ viewport: { width: 1280, height: 900 } });
     const page = await context.newPage();
     await signIn(page);
     await page.goto(url);

@@ -1,23 +1,13 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { startTestApp, uniqueEmail, type TestApp } from '../support/test-app';
-import { launchBrowser, snap } from '../support/browser';
+import { describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { uniqueEmail } from '../support/test-app';
+import { browserTestEnv, signInThroughForm, snap } from '../support/browser';
 
-let app: TestApp;
-let browser: Browser;
-
-beforeAll(async () => {
-  app = await startTestApp({ client: 'dist' });
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await app?.close();
-});
+const env = browserTestEnv();
 
 /** Opens the newest captured mail to `to` on the mailbox page and follows its first link. */
 async function followMailLink(page: Page, to: string, subject: RegExp, shot: string) {
-  await page.goto(`${app.url}/dev/mailbox`);
+  await page.goto(`${env.app.url}/dev/mailbox`);
   const item = page.getByTestId('mail-item').filter({ hasText: to }).filter({ hasText: subject }).first();
   await item.waitFor({ timeout: 15_000 });
   const body = item.getByTestId('mail-body');
@@ -27,7 +17,7 @@ async function followMailLink(page: Page, to: string, subject: RegExp, shot: str
 }
 
 async function signUp(page: Page, name: string, email: string) {
-  await page.goto(`${app.url}/sign-up`);
+  await page.goto(`${env.app.url}/sign-up`);
   await page.getByLabel('Full name').fill(name);
   await page.getByLabel('E-mail address').fill(email);
   await page.getByLabel('Password', { exact: true }).fill('a-long-browser-password');
@@ -37,12 +27,12 @@ async function signUp(page: Page, name: string, email: string) {
 
 describe('browser: sign up, confirm, create a lab, invite, accept', () => {
   it('is clicked through by a lead and an invitee', async () => {
-    const context = await browser.newContext({ viewport: { width: 1200, height: 900 } });
+    const context = await env.browser.newContext({ viewport: { width: 1200, height: 900 } });
     const page = await context.newPage();
     const leadEmail = uniqueEmail('browser-lead');
 
     // Field-level errors come from the shared zod schema before anything is sent.
-    await page.goto(`${app.url}/sign-up`);
+    await page.goto(`${env.app.url}/sign-up`);
     await page.getByRole('button', { name: 'Create account' }).click();
     await expect.poll(() => page.getByText('Enter a valid e-mail address').isVisible()).toBe(true);
     await snap(page, '01-sign-up-errors');
@@ -61,7 +51,7 @@ describe('browser: sign up, confirm, create a lab, invite, accept', () => {
     await page.getByText('Your profile is saved.').waitFor();
     await snap(page, '04-account');
 
-    await page.goto(`${app.url}/labs/new`);
+    await page.goto(`${env.app.url}/labs/new`);
     await page.getByLabel('Lab name').fill('Marsh Gnat Observatory');
     const slug = await page.getByLabel('Short name').inputValue();
     expect(slug).toBe('marsh-gnat-observatory');
@@ -99,12 +89,9 @@ describe('browser: sign up, confirm, create a lab, invite, accept', () => {
   });
 
   it('lets the seeded admin see every lab, and hides admin pages from others', async () => {
-    const context = await browser.newContext({ viewport: { width: 1200, height: 900 } });
+    const context = await env.browser.newContext({ viewport: { width: 1200, height: 900 } });
     const page = await context.newPage();
-    await page.goto(`${app.url}/sign-in`);
-    await page.getByLabel('E-mail address').fill('nell.ashby@harrowgate-rds.example');
-    await page.getByLabel('Password').fill('demo-swarm-2026');
-    await page.getByRole('button', { name: 'Sign in' }).click();
+    await signInThroughForm(page, env.app.url, 'nell.ashby@harrowgate-rds.example');
     await page.getByRole('link', { name: 'All labs' }).click();
     await page.getByRole('link', { name: 'Tidewater Schooling Lab' }).waitFor();
     await snap(page, '10-admin-labs');
@@ -113,9 +100,9 @@ describe('browser: sign up, confirm, create a lab, invite, accept', () => {
     await snap(page, '11-admin-accounts');
     await context.close();
 
-    const other = await browser.newContext();
+    const other = await env.browser.newContext();
     const p2 = await other.newPage();
-    await p2.goto(`${app.url}/sign-in?next=/admin/users`);
+    await p2.goto(`${env.app.url}/sign-in?next=/admin/users`);
     await p2.getByLabel('E-mail address').fill('jun.haverly@tidewater.example');
     await p2.getByLabel('Password').fill('demo-swarm-2026');
     await p2.getByRole('button', { name: 'Sign in' }).click();
