@@ -101,6 +101,10 @@ describe('browser: deposit a dataset, publish it, cite it', () => {
     expect(doi).toMatch(/^10\.99999\/cx\.[0-9A-Z]{4}-[0-9A-Z]{5}\.v1$/);
     const ld = JSON.parse((await vp.locator('script[type="application/ld+json"]').textContent())!);
     expect(ld).toMatchObject({ '@type': 'Dataset', name: 'Midge swarm over the reed bed, browser test' });
+    // The statistics and plots are on the landing page.
+    await vp.getByTestId('summary-table').first().waitFor();
+    await vp.getByTestId('chart').first().locator('svg').first().waitFor();
+    expect(await vp.locator('[data-testid^="figure-"]').count()).toBeGreaterThanOrEqual(8);
     await vp.getByTestId('bibtex').waitFor();
     await vp.getByRole('button', { name: 'Copy BibTeX' }).click();
     expect(await vp.evaluate(() => navigator.clipboard.readText())).toContain(`doi = {${doi}}`);

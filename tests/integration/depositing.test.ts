@@ -222,6 +222,10 @@ describe('release landing pages, citations and identifiers', () => {
     expect(fromRis.DOI).toBe(pub.doi);
     const csl = JSON.parse((await visitor.get(`/api/releases/${pub.suffix}/citation/csl-json`)).text);
     expect(csl[0]).toMatchObject({ type: 'dataset', DOI: pub.doi, title: 'Citable swarm' });
+    // CSL-JSON is read back by citation-js's CSL input (which checks the item types and fields of the CSL data model).
+    const fromCsl = new Cite(csl).data[0];
+    expect(fromCsl).toMatchObject({ type: 'dataset', DOI: pub.doi });
+    expect(fromCsl.author).toEqual([{ given: 'Mina', family: 'Throssel' }, { given: 'Rafael', family: 'Quist' }]);
 
     // CITATION.cff: Citation File Format 1.2.0 requires cff-version, message, title and authors.
     const YAML = (await import('yaml')).default;
