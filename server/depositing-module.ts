@@ -19,6 +19,9 @@ import { createAccessService } from './services/access.service';
 import { createAccessRepository } from './repositories/access.repository';
 import { accessRoutes } from './routes/access.routes';
 
+export const EMBARGO_JOB = 'lift-embargoes';
+const EMBARGO_CHECK_MS = 60 * 60 * 1000;
+
 export type DepositingDeps = { config: Config; database: Database; store: ObjectStore; log: Logger; mailer: Pick<Mailer, 'send'>; jobs: JobQueue };
 
 /** Wires datasets, drafts, uploads, ingest and release jobs. */
@@ -64,6 +67,11 @@ export function createDepositingModule({ config, database, store, log, mailer, j
     log: log.child({ area: 'downloads' }),
   });
   const handlers: Record<string, JobHandler> = {
+    // Recurring: checks every hour, then schedules its next run.
+    [EMBARGO_JOB]: async () => {
+      await accessService.liftEmbargoes();
+      if (!(await jobs.hasQueued(EMBARGO_JOB))) await jobs.enqueue(EMBARGO_JOB, {}, { runAfter: new Date(Date.now() + EMBARGO_CHECK_MS) });
+    },
     [BUNDLE_JOB]: downloads.bundleJob,
     [INGEST_JOB]: ingest.handler,
     [REGISTER_JOB]: createRegisterJob({ repo, registrar, doiPrefix: config.doiPrefix, publicBaseUrl: config.publicBaseUrl }),

@@ -14,7 +14,7 @@ import { createObjectStore } from './storage/object-store';
 import { createApp } from './app';
 import type { Route } from './routes/route';
 import { createJobQueue, type JobHandler, type JobQueue } from './jobs/job-queue';
-import { createDepositingModule, type DepositingModule } from './depositing-module';
+import { createDepositingModule, EMBARGO_JOB, type DepositingModule } from './depositing-module';
 import { seedDemo, type DemoAccount } from './seed/demo';
 import { seedDemoReleases } from './seed/demo-releases';
 import { startFakes, type Fakes } from '../docker-free-fakes';
@@ -115,6 +115,7 @@ export async function startCohesia(opts: StartOptions): Promise<Running> {
     if (opts.workers !== false) {
       // One process owns an embedded data folder, so jobs it finds running were cut off by a crash.
       if (database.kind === 'pglite') await jobs.requeueOrphans();
+      if (!(await jobs.hasQueued(EMBARGO_JOB))) await jobs.enqueue(EMBARGO_JOB, {});
       jobs.start(handlers, (row, e) => (row.kind === SEND_MAIL_JOB ? outbox.onFinalFailure(row, e) : depositing.onFinalFailure(row, e)));
       closers.push(() => jobs.stop());
     }

@@ -87,9 +87,9 @@ export function createJobQueue({ db, log, staleAfterMs = 30_000, pollMs = 250 }:
   return {
     workerId,
 
-    async enqueue(kind: string, payload: Record<string, unknown>, opts: { tx?: Db; maxAttempts?: number } = {}): Promise<string> {
+    async enqueue(kind: string, payload: Record<string, unknown>, opts: { tx?: Db; maxAttempts?: number; runAfter?: Date } = {}): Promise<string> {
       const id = randomUUID();
-      await (opts.tx ?? db).insert(job).values({ id, kind, payload, maxAttempts: opts.maxAttempts ?? 3 });
+      await (opts.tx ?? db).insert(job).values({ id, kind, payload, maxAttempts: opts.maxAttempts ?? 3, ...(opts.runAfter ? { runAfter: opts.runAfter } : {}) });
       wake?.();
       return id;
     },
@@ -132,6 +132,12 @@ export function createJobQueue({ db, log, staleAfterMs = 30_000, pollMs = 250 }:
       running = false;
       wake?.();
       await loop;
+    },
+
+    /** Whether a job of this kind is waiting (used to keep one recurring job scheduled). */
+    async hasQueued(kind: string) {
+      const [row] = await db.select({ id: job.id }).from(job).where(sql`${job.kind} = ${kind} and ${job.state} = 'queued'`).limit(1);
+      return !!row;
     },
 
     /** Embedded mode only: jobs left running by a previous process of this data folder start again. */

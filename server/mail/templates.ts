@@ -16,6 +16,8 @@ function mail(to: string, subject: string, lines: string[], link: { url: string;
 }
 
 export const mailTemplates = {
+  embargoEnded: (to: string, title: string, date: string, url: string) =>
+    mail(to, `Embargo ended: ${title}`, [`The embargo on "${title}" ended on ${date}: its files are now open to everyone.`], { url, label: 'See the release' }),
   accessRequested: (to: string, requester: string, affiliation: string, title: string, lab: string, purpose: string, url: string) =>
     mail(to, `Access request: ${title}`, [
       `${requester} (${affiliation}) asks for access to the files of "${title}" in ${lab}.`,

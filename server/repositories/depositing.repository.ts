@@ -214,6 +214,14 @@ export function createDepositingRepository(db: Db) {
         .orderBy(desc(release.publishedAt), desc(release.id))
         .limit(opts.limit);
     },
+    /** Embargoed releases whose date has come. */
+    async embargoesDue(now: Date) {
+      return db
+        .select({ release, labId: dataset.labId })
+        .from(release)
+        .innerJoin(dataset, eq(release.datasetId, dataset.id))
+        .where(and(eq(release.accessLevel, 'embargoed'), sql`${release.embargoUntil} <= ${now.toISOString()}::timestamptz`, sql`${release.withdrawnAt} is null`));
+    },
     async setBundleKey(id: string, bundleKey: string) {
       await db.update(release).set({ bundleKey }).where(eq(release.id, id));
     },

@@ -170,6 +170,25 @@ export function createAccessService(d: Deps) {
       if (row) await mail(mailTemplates.accessRevoked(row.requesterEmail, row.releaseTitle ?? row.datasetTitle, link(paths.account)));
     },
 
+    /**
+     * The embargo job: files of an embargoed release open at its date (the
+     * access check compares the date itself); this records the lift once in
+     * the audit trail and tells the lab. Returns the releases it lifted.
+     */
+    async liftEmbargoes(at: Date = now()) {
+      const lifted: string[] = [];
+      for (const { release: rel, labId } of await d.repo.embargoesDue(at)) {
+        if ((await d.access.auditOf('release', rel.id)).some((e) => e.action === 'release.embargo_lifted')) continue;
+        await d.access.audit({ actorId: null, action: 'release.embargo_lifted', subjectType: 'release', subjectId: rel.id, fromState: 'embargoed', toState: 'open', detail: { embargoUntil: rel.embargoUntil?.toISOString() } });
+        const lab = await d.labs.findById(labId);
+        const leads = (await d.labs.members(labId)).filter((m) => m.role === 'lead' || m.role === 'curator');
+        for (const m of leads) await mail(mailTemplates.embargoEnded(m.email, rel.title, rel.embargoUntil!.toISOString().slice(0, 10), link(paths.release(rel.suffix))));
+        d.log.info({ release: rel.suffix, lab: lab?.slug }, 'embargo lifted');
+        lifted.push(rel.suffix);
+      }
+      return lifted;
+    },
+
     async mine(actor: Actor) {
       return views(await d.access.listRequests({ requesterId: actor.id }), true);
     },

@@ -164,5 +164,12 @@ describe('embargo with a clock you can set', () => {
       });
     expect((await at('2031-04-30T23:59:59Z').accessBySuffix(rel.suffix, { userId: null })).allowed).toBe(false);
     expect((await at('2031-05-01T00:00:00Z').accessBySuffix(rel.suffix, { userId: null })).allowed).toBe(true);
+
+    // The embargo job, run with the clock set: nothing before the date; at the date one audit event and a mail to the lab, once.
+    expect(await app.depositing.access.liftEmbargoes(new Date('2031-04-30T12:00:00Z'))).not.toContain(rel.suffix);
+    expect(await app.depositing.access.liftEmbargoes(new Date('2031-05-01T00:00:01Z'))).toContain(rel.suffix);
+    expect(await app.depositing.access.liftEmbargoes(new Date('2031-05-02T00:00:00Z'))).not.toContain(rel.suffix);
+    const mail = await app.mail.waitFor('ilse.marten@fenmoor.example', /Embargo ended: Embargo clock/);
+    expect(mail.text).toContain('2031-05-01');
   });
 });
