@@ -24,15 +24,19 @@ describe('browser: upload controls', () => {
     await page.route(`http://${store}/**`, async (route) => {
       const url = new URL(route.request().url());
       const part = Number(url.searchParams.get('partNumber'));
-      if (route.request().method() === 'PUT' && part) {
-        partTries.push(part);
-        await new Promise((r) => setTimeout(r, 700));
-        if (part === 2 && !failedOnce) {
-          failedOnce = true;
-          return route.fulfill({ status: 500, body: 'simulated failure' });
+      try {
+        if (route.request().method() === 'PUT' && part) {
+          partTries.push(part);
+          await new Promise((r) => setTimeout(r, 700));
+          if (part === 2 && !failedOnce) {
+            failedOnce = true;
+            return await route.fulfill({ status: 500, body: 'simulated failure' });
+          }
         }
+        await route.continue();
+      } catch {
+        // The browser gave this request up meanwhile (pause or cancel): nothing to answer.
       }
-      return route.continue();
     });
 
     const drop = async (name: string, megabytes: number) => {

@@ -9,7 +9,8 @@ import { Progress } from './file-uploader';
 
 export function DraftFiles({ slug, draftId, files, editable }: { slug: string; draftId: string; files: DraftFileView[]; editable: boolean }) {
   const remove = useRemoveFile(slug, draftId);
-  const shown = files.filter((f) => f.state !== 'uploading');
+  // Uploads in progress show here too, so one left unfinished (a closed tab) can be removed.
+  const shown = files;
   if (!shown.length) return <p className="text-sm text-ink/70">No files yet.</p>;
   return (
     <div className="overflow-x-auto rounded-lg border border-mist bg-white">

@@ -24,6 +24,8 @@ export function FileUploader({ slug, draftId, partSize }: { slug: string; draftI
   const input = useRef<HTMLInputElement>(null);
   // URLs signed when the upload started; more are asked for as needed.
   const signed = useRef(new Map<string, Map<number, string>>());
+  // Our file id for each Uppy file, so a cancel reaches the server even mid-start.
+  const serverIds = useRef(new Map<string, string>());
 
   const uppy = useMemo(() => {
     const u = new Uppy<Meta, Body>({ autoProceed: true, allowMultipleUploadBatches: true, restrictions: { minFileSize: 1 } });
@@ -41,6 +43,12 @@ export function FileUploader({ slug, draftId, partSize }: { slug: string; draftI
         });
         signed.current.set(started.fileId, new Map(started.parts.map((p) => [p.partNumber, p.url])));
         void qc.invalidateQueries({ queryKey: ['drafts', draftId] });
+        if (!u.getFile(file.id)) {
+          // Cancelled while the upload was being started: undo it on the server too.
+          await removeFile(slug, draftId, started.fileId).catch(() => undefined);
+          throw new Error('Upload cancelled');
+        }
+        serverIds.current.set(file.id, started.fileId);
         return { uploadId: started.fileId, key: started.fileId };
       },
       async signPart(_file, { uploadId, partNumber }) {
@@ -79,15 +87,24 @@ export function FileUploader({ slug, draftId, partSize }: { slug: string; draftI
     const onSuccess = (file: UppyFile<Meta, Body> | undefined) => {
       if (file) setTimeout(() => uppy.removeFile(file.id), 1500);
     };
+    const onRemoved = (file: UppyFile<Meta, Body> | undefined) => {
+      const id = file && serverIds.current.get(file.id);
+      if (!file || !id) return;
+      serverIds.current.delete(file.id);
+      // A finished upload stays; an unfinished one is removed from the draft and its space released.
+      if (!file.progress.uploadComplete) void removeFile(slug, draftId, id).catch(() => undefined).then(() => qc.invalidateQueries({ queryKey: ['drafts', draftId] }));
+    };
     uppy.on('state-update', update);
     uppy.on('upload-error', onError);
     uppy.on('upload-success', onSuccess);
+    uppy.on('file-removed', onRemoved);
     return () => {
       uppy.off('state-update', update);
       uppy.off('upload-error', onError);
       uppy.off('upload-success', onSuccess);
+      uppy.off('file-removed', onRemoved);
     };
-  }, [uppy]);
+  }, [uppy, slug, draftId, qc]);
   useEffect(() => () => uppy.destroy(), [uppy]);
 
   const add = (files: FileList | File[]) => {
