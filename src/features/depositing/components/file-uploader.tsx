@@ -35,6 +35,9 @@ export function FileUploader({ slug, draftId, partSize }: { slug: string; draftI
       retryDelays: [0, 1000, 3000, 5000],
       getChunkSize: () => partSize,
       async createMultipartUpload(file) {
+        // Uppy starts over after a pause that came before the first part: reuse the upload it already has.
+        const existing = serverIds.current.get(file.id);
+        if (existing) return { uploadId: existing, key: existing };
         const started: StartedUpload = await startUpload(slug, draftId, {
           fileName: file.name ?? 'file',
           size: file.size ?? 0,
