@@ -692,7 +692,8 @@ export interface ParsedBlock {
  * which reports every problem with its row). Values are exactly those of the
  * parser (Clinger's fast path, PLDI 1990). Pure and self-contained (no
  * reference outside its arguments and built-ins): a worker runs its source
- * text (server/ingest/parse-offload.ts). `pool`: spare buffers to write into
+ * text (server/ingest/parse-offload.ts), which is why its number scanning
+ * repeats the class's fast path instead of calling it. `pool`: spare buffers to write into
  * (taken out of the array; each returned column's `.buffer` may be given back).
  */
 export function parseDataBlock(b: Uint8Array, start: number, end: number, layout: BlockLayout, pool?: ArrayBuffer[], exactRows?: number): ParsedBlock | null {
