@@ -15,7 +15,7 @@ describe('browser: upload controls', () => {
     await page.getByLabel('Title').fill('Upload controls test');
     await page.getByRole('button', { name: /Create dataset/ }).click();
     await page.waitForURL('**/drafts/**', { waitUntil: 'commit' });
-    await page.getByRole('combobox').first().selectOption('supplementary');
+    await page.getByLabel('Files are').selectOption('supplementary');
 
     // Part uploads go straight to the object store: slow them down, and fail the first try of part 2.
     const store = new URL(inject('s3Endpoint')).host;
