@@ -45,6 +45,13 @@ const envSchema = z.object({
   DEMO_SEED: bool.optional(),
   DEMO_RELEASES: bool.default(true),
   JOB_WORKER: bool.default(true),
+  // auto: pg-boss on a PostgreSQL server, the in-database queue on the embedded default.
+  JOB_QUEUE: z.enum(['auto', 'database', 'pg-boss']).default('auto'),
+  // pg-boss only: a job still active after this long is taken as lost (its worker died) and retried.
+  JOB_TIMEOUT_SECONDS: z.coerce.number().int().min(5).default(3600),
+  // OAI-PMH: records per list response, and how long a resumption token stays valid.
+  OAI_PAGE_SIZE: z.coerce.number().int().min(1).max(1000).default(100),
+  OAI_TOKEN_SECONDS: z.coerce.number().int().min(1).default(24 * 3600),
 });
 
 export type Config = {
@@ -67,6 +74,8 @@ export type Config = {
   demoReleases: boolean;
   // Run background jobs in this process (off for API-only instances).
   jobWorker: boolean;
+  jobQueue: { kind: 'database' | 'pg-boss'; timeoutSeconds: number };
+  oai: { pageSize: number; tokenSeconds: number };
 };
 
 export class ConfigError extends Error {}
@@ -92,6 +101,7 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
       `Missing configuration for production:\n${missing.map((m) => `  ${m}: required when NODE_ENV=production`).join('\n')}`,
     );
   }
+  if (e.JOB_QUEUE === 'pg-boss' && !e.DATABASE_URL) throw new ConfigError('Invalid configuration:\n  JOB_QUEUE: pg-boss needs a PostgreSQL server (DATABASE_URL)');
   const dataDir = e.DATA_DIR;
   return {
     env: e.NODE_ENV,
@@ -125,5 +135,7 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     demoSeed: e.DEMO_SEED ?? !production,
     demoReleases: e.DEMO_RELEASES,
     jobWorker: e.JOB_WORKER,
+    jobQueue: { kind: e.JOB_QUEUE === 'auto' ? (e.DATABASE_URL ? 'pg-boss' : 'database') : e.JOB_QUEUE, timeoutSeconds: e.JOB_TIMEOUT_SECONDS },
+    oai: { pageSize: e.OAI_PAGE_SIZE, tokenSeconds: e.OAI_TOKEN_SECONDS },
   };
 }

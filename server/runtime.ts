@@ -14,6 +14,7 @@ import { createObjectStore } from './storage/object-store';
 import { createApp } from './app';
 import type { Route } from './routes/route';
 import { createJobQueue, type JobHandler, type JobQueue } from './jobs/job-queue';
+import { createPgBossQueue } from './jobs/pg-boss-queue';
 import { createDepositingModule, EMBARGO_JOB, type DepositingModule } from './depositing-module';
 import { seedDemo, type DemoAccount } from './seed/demo';
 import { seedDemoReleases } from './seed/demo-releases';
@@ -31,6 +32,8 @@ export type StartOptions = {
   log?: Logger;
   // Run background jobs in this process (default); false for an API-only instance or a test that drives jobs itself.
   workers?: boolean;
+  // Answer HTTP (default); false for a worker-only process.
+  serve?: boolean;
 };
 
 export type Running = {
@@ -96,12 +99,19 @@ export async function startCohesia(opts: StartOptions): Promise<Running> {
       closers.push(() => fakes!.close());
     }
 
+    // Several processes may start at once against one server: one migrates and seeds, the others wait.
+    const startup = await database.startupLock();
+    closers.push(async () => startup.release());
     await database.migrate();
     const transport = createMailer(config.mail.smtpUrl, config.mail.from, log);
     closers.push(async () => transport.close());
     const store = createObjectStore(config.s3);
     closers.push(async () => store.close());
-    const jobs = createJobQueue({ db: database.db, log: log.child({ area: 'jobs' }) });
+    const jobs =
+      config.jobQueue.kind === 'pg-boss' && config.database.kind === 'postgres'
+        ? createPgBossQueue({ db: database.db, url: config.database.url, log: log.child({ area: 'jobs' }), timeoutSeconds: config.jobQueue.timeoutSeconds })
+        : createJobQueue({ db: database.db, log: log.child({ area: 'jobs' }) });
+    closers.push(() => jobs.stop());
     // All mail, better-auth's included, goes through the outbox.
     const outbox = createOutbox({ db: database.db, jobs, transport, log: log.child({ area: 'outbox' }) });
     const mailer = { ...transport, send: outbox.mailer.send };
@@ -112,12 +122,18 @@ export async function startCohesia(opts: StartOptions): Promise<Running> {
     if (config.demoSeed && config.demoReleases) await seedDemoReleases({ config, database, store, log });
     const depositing = createDepositingModule({ config, database, store, log, mailer, jobs });
     const handlers = { ...depositing.handlers, [SEND_MAIL_JOB]: outbox.handler };
+    await jobs.prepare(Object.keys(handlers));
     if (opts.workers !== false) {
       // One process owns an embedded data folder, so jobs it finds running were cut off by a crash.
       if (database.kind === 'pglite') await jobs.requeueOrphans();
       if (!(await jobs.hasQueued(EMBARGO_JOB))) await jobs.enqueue(EMBARGO_JOB, {});
+    }
+    startup.release();
+    if (opts.workers !== false) {
       jobs.start(handlers, (row, e) => (row.kind === SEND_MAIL_JOB ? outbox.onFinalFailure(row, e) : depositing.onFinalFailure(row, e)));
-      closers.push(() => jobs.stop());
+    }
+    if (opts.serve === false) {
+      return { url: '', port: 0, auth, database, demoAccounts, routes: [], jobs, depositing, handlers, close };
     }
 
     const client = await clientHandlers(opts.client, closers);

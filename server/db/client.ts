@@ -16,11 +16,15 @@ export type Database = {
   db: Db;
   kind: 'pglite' | 'postgres';
   migrate(): Promise<void>;
+  /** Serialises start-up work (migrations, seeding) across processes sharing one database. */
+  startupLock(): Promise<{ release(): Promise<void> }>;
   close(): Promise<void>;
   // PGlite only: an image of the whole database (test templates, backups).
   dumpDataDir?: () => Promise<Blob>;
 };
 
+// Any fixed 64-bit number; only Cohesia's start-up takes it.
+const STARTUP_LOCK_KEY = 4_217_300_912;
 const migrationsFolder = new URL('../../drizzle', import.meta.url).pathname;
 
 /** PGlite on disk (or in memory, or from a migrated template for tests). */
@@ -32,6 +36,8 @@ export async function openPglite(opts: { dir?: string; template?: Blob }): Promi
     db: db as unknown as Db,
     kind: 'pglite',
     migrate: () => migratePglite(db, { migrationsFolder }),
+    // One process owns a PGlite folder (the data-folder lock), so there is nobody to wait for.
+    startupLock: async () => ({ release: async () => {} }),
     close: () => client.close(),
     dumpDataDir: () => client.dumpDataDir('none'),
   };
@@ -45,6 +51,21 @@ export async function openPostgres(url: string): Promise<Database> {
     db: db as unknown as Db,
     kind: 'postgres',
     migrate: () => migratePg(db, { migrationsFolder }),
+    startupLock: async () => {
+      // A session-level advisory lock on its own connection, held until release.
+      const lockClient = new pg.Client({ connectionString: url });
+      await lockClient.connect();
+      await lockClient.query('select pg_advisory_lock($1)', [STARTUP_LOCK_KEY]);
+      let held = true;
+      return {
+        release: async () => {
+          if (!held) return;
+          held = false;
+          await lockClient.query('select pg_advisory_unlock($1)', [STARTUP_LOCK_KEY]).catch(() => {});
+          await lockClient.end().catch(() => {});
+        },
+      };
+    },
     close: () => pool.end(),
   };
 }

@@ -12,6 +12,24 @@ export type JobContext = {
 };
 
 export type JobHandler = (row: JobRow, ctx: JobContext) => Promise<void>;
+type FinalFailure = (row: JobRow, e: Error) => Promise<void>;
+
+/** What the app needs of a job queue; the in-database queue below and pg-boss (server/jobs/pg-boss-queue.ts) provide it. */
+export type JobQueue = {
+  workerId: string;
+  enqueue(kind: string, payload: Record<string, unknown>, opts?: { tx?: Db; maxAttempts?: number; runAfter?: Date }): Promise<string>;
+  /** Runs queued jobs of these kinds until none is left (tests and scripts). */
+  drain(handlers: Record<string, JobHandler>, onFinalFailure?: FinalFailure): Promise<void>;
+  /** Starts working on jobs of these kinds in this process. */
+  start(handlers: Record<string, JobHandler>, onFinalFailure?: FinalFailure): void;
+  stop(): Promise<void>;
+  /** Whether a job of this kind is waiting (used to keep one recurring job scheduled). */
+  hasQueued(kind: string): Promise<boolean>;
+  /** Embedded mode only: jobs left running by a previous process of this data folder start again. */
+  requeueOrphans(): Promise<void>;
+  /** Sets up whatever the queue needs for these kinds before the first job (pg-boss: its queues). */
+  prepare(kinds: string[]): Promise<void>;
+};
 
 type Options = {
   db: Db;
@@ -29,7 +47,7 @@ type Options = {
  * with exponential backoff up to `maxAttempts`; a worker killed mid-job leaves
  * a stale heartbeat and another worker (or the next start) takes the job over.
  */
-export function createJobQueue({ db, log, staleAfterMs = 30_000, pollMs = 250 }: Options) {
+export function createJobQueue({ db, log, staleAfterMs = 30_000, pollMs = 250 }: Options): JobQueue {
   const workerId = `${process.pid}-${randomUUID().slice(0, 8)}`;
   let running = false;
   let wake: (() => void) | null = null;
@@ -140,11 +158,11 @@ export function createJobQueue({ db, log, staleAfterMs = 30_000, pollMs = 250 }:
       return !!row;
     },
 
+    async prepare() {},
+
     /** Embedded mode only: jobs left running by a previous process of this data folder start again. */
     async requeueOrphans() {
       await db.update(job).set({ state: 'queued', lockedBy: null, phase: 'restarted' }).where(sql`${job.state} = 'running'`);
     },
   };
 }
-
-export type JobQueue = ReturnType<typeof createJobQueue>;

@@ -1,4 +1,4 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { firstLink, startTestApp, uniqueEmail, type TestApp } from '../support/test-app';
 import { httpClient } from '../support/http-client';
 import { PASSWORD, signInDemo, signUpAndVerify } from '../support/accounts';
@@ -217,7 +217,7 @@ describe('errors and the mailbox', () => {
 
   it('reports the database and object store in /api/health', async () => {
     const res = await httpClient(app.url).get('/api/health');
-    expect(res.json).toEqual({ status: 'ok', database: 'pglite', objectStore: 'ok' });
+    expect(res.json).toEqual({ status: 'ok', database: inject('pgAdminUrl') ? 'postgres' : 'pglite', objectStore: 'ok' });
   });
 });
 

@@ -2,7 +2,9 @@ import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import type { TestProject } from 'vitest/node';
-import { openPglite } from '../../server/db/client';
+import PgBoss from 'pg-boss';
+import { openPglite, openPostgres } from '../../server/db/client';
+import { adminQuery, databaseUrl, dropTestDatabases } from './postgres';
 import { createAuth } from '../../server/auth/create-auth';
 import { seedDemo } from '../../server/seed/demo';
 import { startObjectStorage } from '../../docker-free-fakes/object-storage/server';
@@ -19,6 +21,9 @@ declare module 'vitest' {
     paymentsUrl: string;
     templatePath: string;
     workDir: string;
+    // Set when the suite runs against a PostgreSQL server (COHESIA_TEST_DATABASE_URL).
+    pgAdminUrl: string | null;
+    pgTemplate: string | null;
   }
 }
 
@@ -34,7 +39,15 @@ export default async function setup(project: TestProject) {
   // One payment stand-in for the run; each test app is its own account (its own secret key and webhook endpoint).
   const payments = await startPaymentsStandIn({ port: 0, directory: path.join(workDir, 'payments'), retryDelaysMs: [200, 500, 1000] });
 
-  const database = await openPglite({});
+  // The same migrated, seeded start for every test app: a PGlite image, or a
+  // template database on the PostgreSQL server that each app's database is copied from.
+  const pgAdminUrl = process.env.COHESIA_TEST_DATABASE_URL || null;
+  const pgTemplate = pgAdminUrl ? `cohesia_tpl_${process.pid}` : null;
+  if (pgAdminUrl && pgTemplate) {
+    await dropTestDatabases(pgAdminUrl, pgTemplate);
+    await adminQuery(pgAdminUrl, `create database ${pgTemplate}`);
+  }
+  const database = pgAdminUrl && pgTemplate ? await openPostgres(databaseUrl(pgAdminUrl, pgTemplate)) : await openPglite({});
   await database.migrate();
   const auth = createAuth({
     db: database.db,
@@ -42,9 +55,17 @@ export default async function setup(project: TestProject) {
     mailer: { send: async () => {} },
   });
   await seedDemo({ db: database.db, auth });
-  const blob = await database.dumpDataDir!();
+  if (pgAdminUrl && pgTemplate) {
+    // pg-boss installs its own schema on first start; doing it once here saves every test app that second.
+    const boss = new PgBoss({ connectionString: databaseUrl(pgAdminUrl, pgTemplate), schema: 'pgboss', supervise: false, schedule: false });
+    await boss.start();
+    await boss.stop({ graceful: false, wait: true });
+  }
   const templatePath = path.join(workDir, 'template.tar');
-  fs.writeFileSync(templatePath, Buffer.from(await blob.arrayBuffer()));
+  if (database.dumpDataDir) {
+    const blob = await database.dumpDataDir();
+    fs.writeFileSync(templatePath, Buffer.from(await blob.arrayBuffer()));
+  }
   await database.close();
 
   project.provide('s3Endpoint', storage.url);
@@ -54,8 +75,11 @@ export default async function setup(project: TestProject) {
   project.provide('paymentsUrl', payments.url);
   project.provide('templatePath', templatePath);
   project.provide('workDir', workDir);
+  project.provide('pgAdminUrl', pgAdminUrl);
+  project.provide('pgTemplate', pgTemplate);
 
   return async () => {
+    if (pgAdminUrl && pgTemplate) await dropTestDatabases(pgAdminUrl, pgTemplate);
     await payments.close();
     await identifiers.close();
     await mail.close();

@@ -3,11 +3,11 @@
  * header better-auth requires. Kept to a few lines: the app only sets plain
  * session cookies on one host, so a full cookie-jar library adds nothing here.
  */
-export function httpClient(base: string) {
-  const jar = new Map<string, string>();
+export function httpClient(base: string, opts: { origin?: string; jar?: Map<string, string> } = {}) {
+  const jar = opts.jar ?? new Map<string, string>();
   async function call(method: string, path: string, body?: unknown, init: RequestInit = {}) {
     const headers = new Headers(init.headers);
-    headers.set('origin', base);
+    headers.set('origin', opts.origin ?? base);
     if (jar.size) headers.set('cookie', [...jar].map(([k, v]) => `${k}=${v}`).join('; '));
     if (body !== undefined) headers.set('content-type', 'application/json');
     const res = await fetch(new URL(path, base), {
@@ -42,6 +42,8 @@ export function httpClient(base: string) {
     delete: (p: string) => call('DELETE', p),
     raw: call,
     hasSession: () => [...jar.keys()].some((k) => k.includes('session_token')),
+    /** The same browser (cookies, Origin) talking to another instance behind the same public address. */
+    via: (otherBase: string) => httpClient(otherBase, { origin: opts.origin ?? base, jar }),
   };
 }
 

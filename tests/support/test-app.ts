@@ -4,13 +4,18 @@ import pino from 'pino';
 import { loadConfig } from '../../server/config';
 import { startCohesia, type ClientMode, type Running } from '../../server/runtime';
 import { createPaymentsClient } from '../../server/payments/stripe-client';
+import { createTestDatabase } from './postgres';
 
 export type TestApp = Running & { mail: MailboxClient; payments: { url: string; secretKey: string; webhookSecret: string } };
 
 /** Starts the real app on a free port over a fresh copy of the migrated, seeded template. */
 export async function startTestApp(opts: { client?: ClientMode; env?: Record<string, string>; workers?: boolean } = {}): Promise<TestApp> {
-  const template = new Blob([fs.readFileSync(inject('templatePath'))]);
   const port = await freePort();
+  // Against a PostgreSQL server each app gets its own database copied from the template; otherwise a PGlite image.
+  const pgAdminUrl = inject('pgAdminUrl');
+  const pgTemplate = inject('pgTemplate');
+  const databaseUrl = opts.env?.DATABASE_URL ? null : pgAdminUrl && pgTemplate ? await createTestDatabase(pgAdminUrl, pgTemplate, `${pgTemplate}_app${port}`) : null;
+  const template = databaseUrl || opts.env?.DATABASE_URL ? undefined : new Blob([fs.readFileSync(inject('templatePath'))]);
   const config = loadConfig({
     NODE_ENV: 'test',
     PORT: String(port),
@@ -28,6 +33,7 @@ export async function startTestApp(opts: { client?: ClientMode; env?: Record<str
     BETTER_AUTH_SECRET: 'test-secret-that-is-long-enough-0123456789',
     LOG_LEVEL: 'silent',
     DEMO_RELEASES: 'false',
+    ...(databaseUrl ? { DATABASE_URL: databaseUrl } : {}),
     ...opts.env,
   });
   const running = await startCohesia({ config, client: opts.client ?? 'none', template, log: pino({ level: 'silent' }), workers: opts.workers });

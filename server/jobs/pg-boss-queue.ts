@@ -1,0 +1,169 @@
+import { randomUUID } from 'node:crypto';
+import { sql } from 'drizzle-orm';
+import PgBoss from 'pg-boss';
+import type { Logger } from 'pino';
+import type { Db } from '../db/client';
+import { job } from '../db/schema';
+import type { JobContext, JobHandler, JobQueue, JobRow } from './job-queue';
+
+type Options = {
+  db: Db;
+  url: string;
+  log: Logger;
+  // A job still active after this long is taken as lost (its worker died) and delivered again.
+  timeoutSeconds: number;
+  pollSeconds?: number;
+};
+
+type Message = { jobId: string };
+
+/**
+ * The job queue on a PostgreSQL server: pg-boss delivers, retries with backoff
+ * and re-delivers the jobs of dead workers (expiration), so any number of worker
+ * processes share the work. The `job` row stays the record users see (state,
+ * progress, phase, last error) and the guard that makes each job's work happen
+ * once: a delivery only runs if it can move the row from not-done to running.
+ */
+export function createPgBossQueue({ db, url, log, timeoutSeconds, pollSeconds = 0.5 }: Options): JobQueue & { ready(): Promise<void> } {
+  const workerId = `${process.pid}-${randomUUID().slice(0, 8)}`;
+  const boss = new PgBoss({ connectionString: url, max: 4, schema: 'pgboss', application_name: 'cohesia-jobs', monitorStateIntervalSeconds: 60 });
+  boss.on('error', (e) => log.error({ err: e }, 'job queue error'));
+  let started: Promise<unknown> | null = null;
+  const queues = new Map<string, Promise<void>>();
+  const workers: string[] = [];
+
+  const ready = () => (started ??= boss.start());
+  // Queue creation alters shared tables: run one at a time here, and retry when another process deadlocks with us.
+  let creating: Promise<unknown> = Promise.resolve();
+  const queueFor = (kind: string) => {
+    let q = queues.get(kind);
+    if (!q) {
+      const next = creating.then(async () => {
+        await ready();
+        for (let attempt = 1; ; attempt++) {
+          try {
+            if (!(await boss.getQueue(kind))) await boss.createQueue(kind);
+            return;
+          } catch (e) {
+            if ((e as { code?: string }).code !== '40P01' || attempt >= 5) throw e;
+            await new Promise((r) => setTimeout(r, 100 * attempt));
+          }
+        }
+      });
+      creating = next.catch(() => {});
+      q = next;
+      queues.set(kind, q);
+      q.catch(() => queues.delete(kind));
+    }
+    return q;
+  };
+
+  async function claim(jobId: string): Promise<JobRow | null> {
+    const result = await db.execute<Record<string, unknown>>(sql`
+      update ${job} set state = 'running', locked_by = ${workerId}, heartbeat_at = now(), attempts = attempts + 1, updated_at = now()
+      where id = ${jobId} and state in ('queued', 'running')
+      returning id`);
+    if (!(result as unknown as { rows: unknown[] }).rows.length) return null;
+    const [row] = await db.select().from(job).where(sql`${job.id} = ${jobId}`);
+    return row ?? null;
+  }
+
+  /** Runs one delivery; throws to let pg-boss retry, returns when done or failed for good. */
+  async function runDelivery(jobId: string, handlers: Record<string, JobHandler>, onFinalFailure?: (row: JobRow, e: Error) => Promise<void>) {
+    const row = await claim(jobId);
+    if (!row) return; // already done or failed for good: a repeated delivery does nothing
+    const handler = handlers[row.kind];
+    const ctx: JobContext = {
+      progress: async (fraction, phase) => {
+        await db
+          .update(job)
+          .set({ progress: Math.max(0, Math.min(1, fraction)), phase, heartbeatAt: new Date() })
+          .where(sql`${job.id} = ${row.id} and ${job.lockedBy} = ${workerId}`);
+      },
+    };
+    try {
+      await handler(row, ctx);
+      await db.update(job).set({ state: 'done', progress: 1, phase: 'done', lockedBy: null }).where(sql`${job.id} = ${row.id}`);
+    } catch (e) {
+      const message = e instanceof Error ? e.message : String(e);
+      const final = row.attempts >= row.maxAttempts;
+      log.warn({ jobId: row.id, kind: row.kind, attempt: row.attempts, err: e }, final ? 'job failed for good' : 'job failed; will retry');
+      await db
+        .update(job)
+        .set({ state: final ? 'failed' : 'queued', lastError: message, lockedBy: null, phase: final ? 'failed' : 'waiting to retry' })
+        .where(sql`${job.id} = ${row.id}`);
+      if (!final) throw e;
+      await onFinalFailure?.(row, Object.assign(new Error(message), { finalFailure: true, row })).catch((err) => log.error({ err }, 'final-failure handler failed'));
+    }
+  }
+
+  return {
+    workerId,
+    ready: async () => {
+      await ready();
+    },
+
+    async prepare(kinds) {
+      for (const kind of kinds) await queueFor(kind);
+    },
+
+    async enqueue(kind, payload, opts = {}) {
+      const id = randomUUID();
+      const maxAttempts = opts.maxAttempts ?? 3;
+      await (opts.tx ?? db).insert(job).values({ id, kind, payload, maxAttempts, ...(opts.runAfter ? { runAfter: opts.runAfter } : {}) });
+      await queueFor(kind);
+      await boss.send(kind, { jobId: id } satisfies Message, {
+        id,
+        retryLimit: maxAttempts - 1,
+        retryDelay: 1,
+        retryBackoff: true,
+        expireInSeconds: timeoutSeconds,
+        ...(opts.runAfter ? { startAfter: opts.runAfter } : {}),
+      });
+      return id;
+    },
+
+    async drain(handlers, onFinalFailure) {
+      for (;;) {
+        let ran = false;
+        for (const kind of Object.keys(handlers)) {
+          await queueFor(kind);
+          const [delivery] = await boss.fetch<Message>(kind, { batchSize: 1 });
+          if (!delivery) continue;
+          ran = true;
+          try {
+            await runDelivery(delivery.data.jobId, handlers, onFinalFailure);
+            await boss.complete(kind, delivery.id);
+          } catch (e) {
+            await boss.fail(kind, delivery.id, { message: (e as Error).message });
+          }
+        }
+        if (!ran) return;
+      }
+    },
+
+    start(handlers, onFinalFailure) {
+      for (const kind of Object.keys(handlers)) {
+        void queueFor(kind)
+          .then(() => boss.work<Message>(kind, { batchSize: 1, pollingIntervalSeconds: pollSeconds }, async ([delivery]) => runDelivery(delivery.data.jobId, handlers, onFinalFailure)))
+          .then((id) => workers.push(id))
+          .catch((e) => log.error({ err: e, kind }, 'could not start a worker'));
+      }
+    },
+
+    async stop() {
+      if (!started) return;
+      await started.catch(() => {});
+      // Jobs in progress finish first; a job cut off here is delivered again after its timeout.
+      await boss.stop({ graceful: true, wait: true, timeout: 20_000 });
+    },
+
+    async hasQueued(kind) {
+      const [row] = await db.select({ id: job.id }).from(job).where(sql`${job.kind} = ${kind} and ${job.state} = 'queued'`).limit(1);
+      return !!row;
+    },
+
+    // Never on a server: other workers may be running those jobs right now.
+    async requeueOrphans() {},
+  };
+}
