@@ -46,6 +46,12 @@ export async function openPglite(opts: { dir?: string; template?: Blob }): Promi
 /** A PostgreSQL server, through the same schema and migrations. */
 export async function openPostgres(url: string): Promise<Database> {
   const pool = new pg.Pool({ connectionString: url, max: 10 });
+  // An idle connection the server closed (restart, failover) is dropped from the pool; without a
+  // listener node-postgres would throw it as an uncaught error and stop the process.
+  pool.on('error', () => {});
+  // The same for a connection that is checked out (inside a transaction) when the server goes away:
+  // the query waiting on it fails and the request answers 503; the event must not stop the process.
+  pool.on('connect', (client) => client.on('error', () => {}));
   const db = drizzlePg(pool, { schema, casing: 'snake_case' });
   return {
     db: db as unknown as Db,
@@ -54,6 +60,7 @@ export async function openPostgres(url: string): Promise<Database> {
     startupLock: async () => {
       // A session-level advisory lock on its own connection, held until release.
       const lockClient = new pg.Client({ connectionString: url });
+      lockClient.on('error', () => {}); // a server restart ends the lock with the session; start-up then fails on its own query
       await lockClient.connect();
       await lockClient.query('select pg_advisory_lock($1)', [STARTUP_LOCK_KEY]);
       let held = true;

@@ -36,7 +36,7 @@ export async function startTestApp(opts: { client?: ClientMode; env?: Record<str
     ...(databaseUrl ? { DATABASE_URL: databaseUrl } : {}),
     ...opts.env,
   });
-  const running = await startCohesia({ config, client: opts.client ?? 'none', template, log: pino({ level: 'silent' }), workers: opts.workers });
+  const running = await startCohesia({ config, client: opts.client ?? 'none', template, log: pino({ level: process.env.COHESIA_TEST_LOG ?? 'silent' }), workers: opts.workers });
   // The stand-in sends this account's webhook events to this app (the provider's own endpoint API, through the SDK).
   await createPaymentsClient(config.payments).webhookEndpoints.create({ url: `${running.url}/api/billing/webhook`, enabled_events: ['*'] });
   const payments = { url: config.payments.apiUrl, secretKey: config.payments.secretKey, webhookSecret: config.payments.webhookSecret };
