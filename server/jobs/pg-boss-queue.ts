@@ -26,7 +26,15 @@ type Message = { jobId: string };
  */
 export function createPgBossQueue({ db, url, log, timeoutSeconds, pollSeconds = 0.5 }: Options): JobQueue & { ready(): Promise<void> } {
   const workerId = `${process.pid}-${randomUUID().slice(0, 8)}`;
-  const boss = new PgBoss({ connectionString: url, max: 4, schema: 'pgboss', application_name: 'cohesia-jobs', monitorStateIntervalSeconds: 60 });
+  const boss = new PgBoss({
+    connectionString: url,
+    max: 4,
+    schema: 'pgboss',
+    application_name: 'cohesia-jobs',
+    monitorStateIntervalSeconds: 60,
+    // Expired (lost) jobs are found by the maintenance pass: run it often enough for the timeout to mean something.
+    maintenanceIntervalSeconds: Math.max(1, Math.min(120, Math.floor(timeoutSeconds / 4))),
+  });
   boss.on('error', (e) => log.error({ err: e }, 'job queue error'));
   let started: Promise<unknown> | null = null;
   const queues = new Map<string, Promise<void>>();
@@ -58,12 +66,21 @@ export function createPgBossQueue({ db, url, log, timeoutSeconds, pollSeconds = 
     return q;
   };
 
+  // A running row whose heartbeat (progress updates) is younger than this belongs to a live worker
+  // (30 s as in the in-database queue; shorter when the timeout itself is short).
+  const staleSeconds = Math.max(2, Math.min(30, Math.floor(timeoutSeconds / 2)));
+
   async function claim(jobId: string): Promise<JobRow | null> {
     const result = await db.execute<Record<string, unknown>>(sql`
       update ${job} set state = 'running', locked_by = ${workerId}, heartbeat_at = now(), attempts = attempts + 1, updated_at = now()
-      where id = ${jobId} and state in ('queued', 'running')
+      where id = ${jobId} and (state = 'queued' or (state = 'running' and (heartbeat_at is null or heartbeat_at < now() - make_interval(secs => ${staleSeconds}))))
       returning id`);
-    if (!(result as unknown as { rows: unknown[] }).rows.length) return null;
+    if (!(result as unknown as { rows: unknown[] }).rows.length) {
+      const [row] = await db.select({ state: job.state }).from(job).where(sql`${job.id} = ${jobId}`);
+      // Delivered again while its worker is alive and reporting (the job outran the timeout): try later.
+      if (row?.state === 'running') throw new Error('the job is still running on another worker');
+      return null;
+    }
     const [row] = await db.select().from(job).where(sql`${job.id} = ${jobId}`);
     return row ?? null;
   }

@@ -8,6 +8,7 @@ import { startTestApp, type TestApp } from '../support/test-app';
 import { signInDemo } from '../support/accounts';
 import { fixture, uploadFile, validMetadata, waitForFile } from '../support/depositing';
 import { createTestDatabase } from '../support/postgres';
+import { generateBenchFile, gzipFile } from '../../scripts/bench/generate';
 
 // The production layout in small: two stateless API instances (JOB_WORKER=off) and two
 // worker processes (`npm run worker`) against one PostgreSQL server and one object store.
@@ -43,13 +44,17 @@ describe.skipIf(!pgAdminUrl)('scale-out on a PostgreSQL server', () => {
   let a: TestApp;
   let b: TestApp;
   const workers: Worker[] = [];
+  const killed = new Set<Worker>();
 
   beforeAll(async () => {
     const databaseUrl = await createTestDatabase(pgAdminUrl!, pgTemplate!, `${pgTemplate}_scaleout`);
     const stripeKey = `sk_test_scaleout_${Date.now().toString(36)}`;
-    a = await startTestApp({ workers: false, env: { DATABASE_URL: databaseUrl, STRIPE_SECRET_KEY: stripeKey } });
+    // Short job timeout (every process of a deployment shares it: the sender stamps it on the job),
+    // so a job whose worker was killed is handed on within seconds.
+    const shared = { DATABASE_URL: databaseUrl, STRIPE_SECRET_KEY: stripeKey, JOB_TIMEOUT_SECONDS: '6' };
+    a = await startTestApp({ workers: false, env: shared });
     // Behind one load balancer both instances answer for the same public address.
-    b = await startTestApp({ workers: false, env: { DATABASE_URL: databaseUrl, STRIPE_SECRET_KEY: stripeKey, PUBLIC_BASE_URL: a.url } });
+    b = await startTestApp({ workers: false, env: { ...shared, PUBLIC_BASE_URL: a.url } });
     const workerEnv = {
       NODE_ENV: 'test',
       LOG_LEVEL: 'warn',
@@ -66,18 +71,20 @@ describe.skipIf(!pgAdminUrl)('scale-out on a PostgreSQL server', () => {
       STRIPE_API_URL: inject('paymentsUrl'),
       STRIPE_SECRET_KEY: stripeKey,
       BETTER_AUTH_SECRET: AUTH_SECRET,
+      JOB_TIMEOUT_SECONDS: '6',
     };
     workers.push(startWorker(workerEnv), startWorker(workerEnv));
     await Promise.all(workers.map((w, i) => waitFor(() => w.output().includes('is taking jobs'), 45_000, `worker ${i + 1} to start:\n${w.output()}`)));
   }, 120_000);
 
   afterAll(async () => {
-    for (const w of workers) w.child.kill('SIGTERM');
+    const live = workers.filter((w) => !killed.has(w));
+    for (const w of live) w.child.kill('SIGTERM');
     // Workers finish their current job and exit cleanly on SIGTERM.
-    const codes = await Promise.all(workers.map((w) => w.exited));
+    const codes = await Promise.all(live.map((w) => w.exited));
     await b?.close();
     await a?.close();
-    expect(codes).toEqual(workers.map(() => 0));
+    expect(codes).toEqual(live.map(() => 0));
   });
 
   it('a session made on one instance works on the other, and every job is done exactly once by the workers', async () => {
@@ -132,4 +139,42 @@ describe.skipIf(!pgAdminUrl)('scale-out on a PostgreSQL server', () => {
     expect(mails.rows.length).toBeGreaterThan(0);
     expect(mails.rows.every((m) => m.state === 'sent' && m.attempts === 1)).toBe(true);
   });
+
+  it('a worker killed (SIGKILL) mid-ingest: the other worker takes the job over and it completes once', async () => {
+    // A file big enough that its ingest runs for a second or more (1.5 M rows, gzip).
+    const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'cohesia-big-'));
+    await generateBenchFile(path.join(dir, 'big.csv'), 1_500_000);
+    await gzipFile(path.join(dir, 'big.csv'), path.join(dir, 'big.csv.gz'));
+    const depositor = await signInDemo(a, 'mina.throssel@fenmoor.example');
+    const { draftId } = (await depositor.post(`/api/labs/${LAB}/datasets`, { title: 'Killed worker', summary: '' })).json;
+    await depositor.put(`/api/labs/${LAB}/drafts/${draftId}/metadata`, { metadata: { title: 'Killed worker', frameRate: 100, units: 'm', dimension: 3 } });
+    const fileId = await uploadFile(depositor, LAB, draftId, 'big.csv.gz', fs.readFileSync(path.join(dir, 'big.csv.gz')));
+
+    // Kill whichever worker holds the ingest (its pid starts the lock holder's id) while it runs.
+    const holder = await (async () => {
+      const end = Date.now() + 30_000;
+      for (;;) {
+        const res = (await a.database.db.execute(sql`select locked_by from job where kind = 'ingest-file' and payload->>'fileId' = ${fileId} and state = 'running'`)) as unknown as {
+          rows: Array<{ locked_by: string }>;
+        };
+        if (res.rows[0]?.locked_by) return res.rows[0].locked_by;
+        if (Date.now() > end) throw new Error('the ingest never started');
+        await new Promise((r) => setTimeout(r, 25));
+      }
+    })();
+    const victim = workers.find((w) => holder.startsWith(`${w.child.pid}-`))!;
+    expect(victim).toBeTruthy();
+    killed.add(victim);
+    victim.child.kill('SIGKILL');
+    expect(await victim.exited).toBeNull();
+
+    const file = await waitForFile(depositor, LAB, draftId, fileId, 60_000);
+    expect(file.state).toBe('ready');
+    const rows = (await a.database.db.execute(sql`select state, attempts, locked_by from job where payload->>'fileId' = ${fileId}`)) as unknown as {
+      rows: Array<{ state: string; attempts: number }>;
+    };
+    // Two attempts: the killed one and the one that finished; one result.
+    expect(rows.rows).toMatchObject([{ state: 'done', attempts: 2 }]);
+    fs.rmSync(dir, { recursive: true, force: true });
+  }, 180_000);
 });
