@@ -1,4 +1,5 @@
 // citation-js has no type declarations; see citation-js.d.ts beside this file.
+import { LRUCache } from 'lru-cache';
 import { Cite, plugins } from '@citation-js/core';
 import '@citation-js/plugin-bibtex';
 import '@citation-js/plugin-ris';
@@ -49,8 +50,19 @@ export function toCsl(r: CitableRelease) {
 
 export const CITATION_STYLES = { apa: 'APA', vancouver: 'Vancouver', harvard1: 'Harvard' } as const;
 
+// Formatting through citation-js costs tens of milliseconds and a release never changes, so each
+// result is kept, keyed by its whole input (bounded: the least recently used go first).
+const formatted = new LRUCache<string, ReturnType<typeof formatCitations>>({ max: 5000 });
+
 /** Formatted citations in several styles, and the export formats. */
 export function citations(r: CitableRelease) {
+  const key = JSON.stringify(r);
+  let out = formatted.get(key);
+  if (!out) formatted.set(key, (out = formatCitations(r)));
+  return out;
+}
+
+function formatCitations(r: CitableRelease) {
   const cite = new Cite(toCsl(r));
   const styles = Object.fromEntries(
     Object.keys(CITATION_STYLES).map((template) => [template, String(cite.format('bibliography', { format: 'text', template, lang: 'en-US' })).trim()]),
