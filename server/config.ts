@@ -49,9 +49,21 @@ const envSchema = z.object({
   JOB_QUEUE: z.enum(['auto', 'database', 'pg-boss']).default('auto'),
   // pg-boss only: a job still active after this long is taken as lost (its worker died) and retried.
   JOB_TIMEOUT_SECONDS: z.coerce.number().int().min(5).default(3600),
+  // Where POST /api/admin/backups writes a backup of the running instance (default: DATA_DIR/backups).
+  BACKUP_DIR: z.string().min(1).optional(),
   // OAI-PMH: records per list response, and how long a resumption token stays valid.
   OAI_PAGE_SIZE: z.coerce.number().int().min(1).max(1000).default(100),
   OAI_TOKEN_SECONDS: z.coerce.number().int().min(1).default(24 * 3600),
+  // Security: which proxies may set X-Forwarded-For (Express "trust proxy": loopback, a hop count, true/false or subnets).
+  TRUST_PROXY: z.string().min(1).default('loopback'),
+  // Attempts per client IP per window; unset in NODE_ENV=test means no practical limit (tests set small ones).
+  RATE_LIMIT_WINDOW_SECONDS: z.coerce.number().int().min(1).default(15 * 60),
+  RATE_LIMIT_SIGN_IN: z.coerce.number().int().min(1).optional(),
+  RATE_LIMIT_SIGN_UP: z.coerce.number().int().min(1).optional(),
+  RATE_LIMIT_PASSWORD_RESET: z.coerce.number().int().min(1).optional(),
+  RATE_LIMIT_ACCESS_REQUESTS: z.coerce.number().int().min(1).optional(),
+  // Largest JSON body the API reads; bigger ones answer 413.
+  JSON_BODY_LIMIT: z.string().regex(/^\d+(b|kb|mb)$/, 'must look like 100kb or 1mb').default('1mb'),
 });
 
 export type Config = {
@@ -75,10 +87,22 @@ export type Config = {
   // Run background jobs in this process (off for API-only instances).
   jobWorker: boolean;
   jobQueue: { kind: 'database' | 'pg-boss'; timeoutSeconds: number };
+  backupDir: string;
   oai: { pageSize: number; tokenSeconds: number };
+  security: {
+    trustProxy: boolean | number | string;
+    jsonBodyLimit: string;
+    rateLimits: { windowSeconds: number; signIn: number; signUp: number; passwordReset: number; accessRequests: number };
+  };
 };
 
 export class ConfigError extends Error {}
+
+// Express accepts booleans, hop counts and address lists for "trust proxy".
+function parseTrustProxy(v: string): boolean | number | string {
+  if (v === 'true' || v === 'false') return v === 'true';
+  return /^\d+$/.test(v) ? Number(v) : v;
+}
 
 // Only for the embedded mode; production must set its own.
 const EMBEDDED_AUTH_SECRET = 'cohesia-embedded-development-secret-not-for-production';
@@ -136,6 +160,19 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     demoReleases: e.DEMO_RELEASES,
     jobWorker: e.JOB_WORKER,
     jobQueue: { kind: e.JOB_QUEUE === 'auto' ? (e.DATABASE_URL ? 'pg-boss' : 'database') : e.JOB_QUEUE, timeoutSeconds: e.JOB_TIMEOUT_SECONDS },
+    backupDir: e.BACKUP_DIR ?? `${dataDir}/backups`,
     oai: { pageSize: e.OAI_PAGE_SIZE, tokenSeconds: e.OAI_TOKEN_SECONDS },
+    security: {
+      trustProxy: parseTrustProxy(e.TRUST_PROXY),
+      jsonBodyLimit: e.JSON_BODY_LIMIT,
+      rateLimits: {
+        windowSeconds: e.RATE_LIMIT_WINDOW_SECONDS,
+        // Test apps sign in many times from one address; their limit tests set these explicitly.
+        signIn: e.RATE_LIMIT_SIGN_IN ?? (e.NODE_ENV === 'test' ? 1_000_000 : 10),
+        signUp: e.RATE_LIMIT_SIGN_UP ?? (e.NODE_ENV === 'test' ? 1_000_000 : 5),
+        passwordReset: e.RATE_LIMIT_PASSWORD_RESET ?? (e.NODE_ENV === 'test' ? 1_000_000 : 5),
+        accessRequests: e.RATE_LIMIT_ACCESS_REQUESTS ?? (e.NODE_ENV === 'test' ? 1_000_000 : 20),
+      },
+    },
   };
 }

@@ -6,3 +6,7 @@ export * from './errors';
 export * from './depositing';
 export * from './access';
 export * from './billing';
+export * from './lab-profiles';
+export * from './catalogue';
+export * from './audit';
+export * from './comparisons';

@@ -23,3 +23,4 @@ export { oscillationFrequency } from './oscillation-frequency';
 export { createPairTracker, transientPairs, type PairEvent, type PairTracker, type PairTrackerOptions } from './transient-pairs';
 export { gaussianDerivativeKernels, type DerivativeKernels } from './gaussian-derivative-kernels';
 export { smoothDifferentiate } from './smooth-differentiate';
+export { powerLawFit, type PowerLawFit } from './power-law-fit';

@@ -5,6 +5,7 @@ import { useSignOut } from '../features/auth/api/sign-out';
 import { useInfo } from '../features/site/api/get-info';
 import { Loading } from '../components/query-state';
 import { paths } from './paths';
+import { ComparisonIndicator } from '../features/comparison/components/comparison-indicator';
 
 const navClass = ({ isActive }: { isActive: boolean }) =>
   `rounded px-2 py-1 text-sm no-underline ${isActive ? 'bg-mist font-semibold text-ink' : 'text-ink/80 hover:text-dusk'}`;
@@ -43,12 +44,15 @@ export function Layout() {
         <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-4 px-4 py-3">
           <Logo />
           <nav aria-label="Main" className="flex flex-1 flex-wrap items-center gap-1">
+            <NavLink to={paths.catalogue} className={navClass}>Catalogue</NavLink>
+            <ComparisonIndicator className={navClass} />
             {user ? <NavLink to={paths.myLabs} end className={navClass}>My labs</NavLink> : null}
             {user?.role === 'admin' ? (
               <>
                 <NavLink to={paths.adminUsers} className={navClass}>Accounts</NavLink>
                 <NavLink to={paths.adminLabs} className={navClass}>All labs</NavLink>
                 <NavLink to={paths.adminPlans} className={navClass}>Plans</NavLink>
+                <NavLink to={paths.adminAudit} className={navClass}>Audit log</NavLink>
               </>
             ) : null}
             {info.data?.mailbox ? <NavLink to={paths.mailbox} className={navClass}>Mailbox</NavLink> : null}

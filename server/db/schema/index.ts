@@ -4,3 +4,6 @@ export * from './depositing';
 export * from './access';
 export * from './storage';
 export * from './billing';
+export * from './lab-profiles';
+export * from './catalogue';
+export * from './comparisons';

@@ -12,6 +12,7 @@ import { DraftStateBadge } from '../../features/depositing/components/file-state
 import { labRoleCan } from '../../../shared/lab-roles';
 import { RequireSession } from '../require-session';
 import { paths } from '../paths';
+import { DoiIdentifier } from '../../components/identifier';
 
 export function Component() {
   const { slug = '', draftId = '' } = useParams();
@@ -36,7 +37,8 @@ function Draft({ slug, draftId }: { slug: string; draftId: string }) {
                 <DraftStateBadge state={d.state} />
                 {d.baseVersion ? <span>New version after v{d.baseVersion}</span> : <span>First version</span>}
                 <span>
-                  All-versions identifier <span className="font-mono">{d.dataset.doi}</span> (registered at publication)
+                  <DoiIdentifier doi={d.dataset.doi} label="All-versions identifier" resolvable={!!d.baseVersion} />
+                  {d.baseVersion ? null : ' (registered at publication)'}
                 </span>
                 <Link to={paths.labDatasets(slug)}>All datasets of the lab</Link>
               </span>

@@ -1,3 +1,4 @@
+import { Link } from 'react-router-dom';
 import { LinkButton } from '../../components/button';
 import { useSession } from '../../features/auth/api/get-session';
 import { paths } from '../paths';
@@ -37,7 +38,10 @@ export function Component() {
         </div>
       </section>
       <section className="mx-auto max-w-4xl px-4 pt-10">
-        <h2 className="mb-4 text-xl font-bold">Recent releases</h2>
+        <div className="mb-4 flex flex-wrap items-baseline justify-between gap-2">
+          <h2 className="text-xl font-bold">Recent releases</h2>
+          <Link to={paths.catalogue} className="text-sm">Search the whole catalogue →</Link>
+        </div>
         <ReleaseList />
       </section>
       <section className="mx-auto grid max-w-4xl gap-6 px-4 py-12 sm:grid-cols-2">

@@ -1,4 +1,4 @@
-import { useParams } from 'react-router-dom';
+import { Link, useParams } from 'react-router-dom';
 import { Page, Section } from '../../components/page';
 import { DemoBadge } from '../../components/badge';
 import { QueryState } from '../../components/query-state';
@@ -10,6 +10,9 @@ import { RoleBadge } from '../../features/labs/components/role-badge';
 import { labRoleCan } from '../../../shared/lab-roles';
 import { LinkButton } from '../../components/button';
 import { paths } from '../paths';
+import { RorIdentifier } from '../../components/identifier';
+import { MemberListingToggle } from '../../features/lab-profiles/components/member-listing-toggle';
+import { LabDescriptionForm } from '../../features/lab-profiles/components/lab-description-form';
 
 export function Component() {
   const { slug = '' } = useParams();
@@ -23,7 +26,8 @@ export function Component() {
           lead={
             <span className="flex flex-wrap items-center gap-2">
               {l.institution ? <span>{l.institution}</span> : null}
-              {l.rorId ? <a href={l.rorId} rel="noreferrer">ROR record</a> : null}
+              {l.rorId ? <RorIdentifier rorId={l.rorId} label="ROR id" /> : null}
+              <Link to={paths.labProfile(l.slug)}>Public page</Link>
               {l.isDemo ? <DemoBadge /> : null}
               {l.myRole ? (
                 <span className="ml-2 flex items-center gap-1 text-sm">
@@ -46,11 +50,24 @@ export function Component() {
               {labRoleCan(l.myRole, { billing: ['manage'] }) ? (
                 <LinkButton variant="secondary" to={paths.labStorage(l.slug)}>Storage and billing</LinkButton>
               ) : null}
+              {labRoleCan(l.myRole, { lab: ['update'] }) ? (
+                <LinkButton variant="secondary" to={paths.labAudit(l.slug)}>Audit log</LinkButton>
+              ) : null}
             </p>
           ) : null}
           <Section title={`Members (${l.memberCount})`}>
             <LabMembers lab={l} />
           </Section>
+          {l.myRole ? (
+            <Section title="Your listing on the public page">
+              <MemberListingToggle slug={l.slug} />
+            </Section>
+          ) : null}
+          {labRoleCan(l.myRole, { lab: ['update'] }) ? (
+            <Section title="Description on the public page">
+              <LabDescriptionForm slug={l.slug} description={l.description} />
+            </Section>
+          ) : null}
           {labRoleCan(l.myRole, { invitation: ['create'] }) ? (
             <>
               <Section title="Invite a member">

@@ -1,10 +1,13 @@
+import { useEffect } from 'react';
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import { Section } from '../../components/page';
 import { DemoBadge } from '../../components/badge';
 import { QueryState } from '../../components/query-state';
+import { DoiIdentifier } from '../../components/identifier';
 import { useRelease, type ReleaseLanding } from '../../features/releases/api/get-release';
 import { AccessBadge, accessExplanation } from '../../features/releases/components/access-badge';
 import { CitationBox } from '../../features/releases/components/citation-box';
+import { AddToComparisonButton } from '../../features/comparison/components/add-to-comparison-button';
 import { ReleaseFiles } from '../../features/releases/components/release-files';
 import { ValidationReport } from '../../features/depositing/components/validation-report';
 import { IngestReport } from '../../features/ingest-report/components/ingest-report';
@@ -22,20 +25,11 @@ export function Component() {
   return <QueryState query={release}>{(r) => <Landing r={r} />}</QueryState>;
 }
 
-function Identifier({ doi, label }: { doi: string; label: string }) {
-  return (
-    <span className="inline-flex flex-wrap items-center gap-2">
-      <span className="text-ink/70">{label}</span>
-      <a href={paths.resolveDoi(doi)} className="font-mono">{doi}</a>
-      <button type="button" className="rounded border border-mist px-1.5 text-xs text-dusk hover:bg-mist" onClick={() => navigator.clipboard.writeText(doi).catch(() => undefined)} aria-label={`Copy ${doi}`}>
-        Copy
-      </button>
-    </span>
-  );
-}
-
 function Landing({ r }: { r: ReleaseLanding }) {
   const navigate = useNavigate();
+  // The server puts the JSON-LD in the first page's head for crawlers without JavaScript; once this page
+  // renders its own (and keeps it current while navigating), that copy would be a stale duplicate.
+  useEffect(() => document.querySelectorAll('script[type="application/ld+json"][data-from="server"]').forEach((n) => n.remove()), []);
   const m = r.metadata;
   const creators: Array<{ name: string; orcid?: string; affiliation?: { name: string } }> = m.creators ?? [];
   return (
@@ -62,7 +56,7 @@ function Landing({ r }: { r: ReleaseLanding }) {
               {i ? ', ' : ''}
               {c.name}
               {c.orcid ? (
-                <a href={`https://orcid.org/${c.orcid}`} className="ml-1 text-xs" aria-label={`ORCID iD of ${c.name}`}>
+                <a href={`https://orcid.org/${c.orcid}`} className="ml-1 text-xs" aria-label={`ORCID iD of ${c.name}`} title={`ORCID iD ${c.orcid}`}>
                   ORCID
                 </a>
               ) : null}
@@ -70,13 +64,13 @@ function Landing({ r }: { r: ReleaseLanding }) {
           ))}
         </p>
         <div className="mt-4 flex flex-col gap-1 text-sm">
-          <Identifier doi={r.doi} label="This version" />
-          <Identifier doi={r.dataset.doi} label="All versions" />
+          <DoiIdentifier doi={r.doi} label="This version" />
+          <DoiIdentifier doi={r.dataset.doi} label="All versions" />
           <span className="text-ink/70">
             Published {r.publishedAt.slice(0, 10)}
             {r.dataset.lab ? (
               <>
-                {' '}by <Link to={paths.lab(r.dataset.lab.slug)}>{r.dataset.lab.name}</Link>
+                {' '}by <Link to={paths.labProfile(r.dataset.lab.slug)}>{r.dataset.lab.name}</Link>
               </>
             ) : null}
           </span>
@@ -97,6 +91,11 @@ function Landing({ r }: { r: ReleaseLanding }) {
             ))}
           </select>
         </label>
+        {!r.withdrawn && r.results.length ? (
+          <div className="mt-4">
+            <AddToComparisonButton suffix={r.suffix} title={r.title} />
+          </div>
+        ) : null}
       </header>
 
       {!r.withdrawn ? (

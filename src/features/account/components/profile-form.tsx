@@ -6,6 +6,7 @@ import { Button } from '../../../components/button';
 import { FormAlert, TextField } from '../../../components/form';
 import { applyServerErrors } from '../../../lib/form-errors';
 import { useUpdateProfile } from '../api/update-profile';
+import { OrcidIdentifier } from '../../../components/identifier';
 
 export function ProfileForm({ profile }: { profile: Profile }) {
   const form = useForm<UpdateProfileInput>({
@@ -39,6 +40,11 @@ export function ProfileForm({ profile }: { profile: Profile }) {
         error={errors.orcid?.message}
         {...form.register('orcid')}
       />
+      {profile.orcid ? (
+        <p className="-mt-2 text-sm">
+          <OrcidIdentifier orcid={profile.orcid} label="Your public ORCID record:" />
+        </p>
+      ) : null}
       <div>
         <Button type="submit" busy={update.isPending}>Save profile</Button>
       </div>

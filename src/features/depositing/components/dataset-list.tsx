@@ -1,6 +1,7 @@
 import { Link, useNavigate } from 'react-router-dom';
 import type { DatasetListItem } from '../../../../shared/contracts';
 import { Button } from '../../../components/button';
+import { DoiIdentifier } from '../../../components/identifier';
 import { paths } from '../../../app/paths';
 import { useStartNewVersion } from '../api/start-new-version';
 import { DraftStateBadge } from './file-state-badge';
@@ -16,7 +17,7 @@ export function DatasetList({ slug, datasets, canCreate }: { slug: string; datas
           <div className="min-w-64 flex-1">
             <div className="font-serif font-bold">{d.title}</div>
             <div className="text-xs text-ink/60">
-              All versions: <span className="font-mono">{d.doi}</span>
+              <DoiIdentifier doi={d.doi} label="All versions:" resolvable={!!d.latestVersion} />
               {d.latestVersion ? ` · latest release v${d.latestVersion}` : ' · not released yet'}
             </div>
           </div>

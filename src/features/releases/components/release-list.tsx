@@ -1,6 +1,7 @@
 import { Link } from 'react-router-dom';
 import { Button } from '../../../components/button';
 import { Loading } from '../../../components/query-state';
+import { DoiIdentifier } from '../../../components/identifier';
 import { paths } from '../../../app/paths';
 import { useReleases } from '../api/get-releases';
 import { AccessBadge } from './access-badge';
@@ -19,6 +20,9 @@ export function ReleaseList() {
             <Link to={paths.release(r.suffix)} className="font-serif font-bold leading-snug">{r.title}</Link>
             <div className="mt-1 text-xs text-ink/70">
               {r.lab?.name} · v{r.version} · {r.publishedAt.slice(0, 10)}
+            </div>
+            <div className="mt-1 text-xs">
+              <DoiIdentifier doi={r.doi} />
             </div>
             <div className="mt-2 flex flex-wrap items-center gap-2 text-xs">
               <AccessBadge level={r.accessLevel} />

@@ -1,0 +1,1 @@
+CREATE INDEX "release_search_dataset_idx" ON "release_search" USING btree ("dataset_id");
