@@ -18,8 +18,8 @@ try {
   process.exit(1);
 }
 for (const entry of fs.readdirSync(dir)) {
-  // Benchmark inputs are costly to regenerate and hold no user data.
-  if (entry === 'bench') continue;
+  // Benchmark inputs are costly to regenerate and hold no user data; backups are what a reset must not take.
+  if (entry === 'bench' || entry === 'backups') continue;
   fs.rmSync(path.join(dir, entry), { recursive: true, force: true });
 }
-console.log(`Reset ${dir}: the next start seeds the demo data again.`);
+console.log(`Reset ${dir}: the next start seeds the demo data again (backups/ and bench/ were kept).`);

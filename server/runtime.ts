@@ -137,7 +137,7 @@ export async function startCohesia(opts: StartOptions): Promise<Running> {
     }
 
     const client = await clientHandlers(opts.client, closers);
-    const app = createApp({ config, database, auth, store, log, client, mailer, depositing });
+    const app = createApp({ config, database, auth, store, log, client, mailer, depositing, devClient: opts.client === 'vite' });
     const server = http.createServer(app);
     await new Promise<void>((resolve, reject) => {
       server.once('error', reject);

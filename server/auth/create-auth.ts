@@ -54,7 +54,13 @@ export function createAuth({ db, schema, config, mailer }: AuthDeps) {
         await mailer.send(mailTemplates.verifyEmail(user.email, user.name, url));
       },
     },
-    rateLimit: { enabled: config.env === 'production' },
+    // Limits are ours (server/middleware/rate-limits.ts): one mechanism with our error shape and Retry-After.
+    rateLimit: { enabled: false },
+    advanced: {
+      // Secure (and __Secure- prefixed) cookies whenever the public address is https, whatever NODE_ENV says.
+      useSecureCookies: base.startsWith('https://'),
+      defaultCookieAttributes: { httpOnly: true, sameSite: 'lax' },
+    },
     plugins: [
       admin({ defaultRole: 'user', adminRoles: ['admin'] }),
       organization({

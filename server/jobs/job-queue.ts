@@ -3,8 +3,11 @@ import { sql } from 'drizzle-orm';
 import type { Logger } from 'pino';
 import type { Db } from '../db/client';
 import { job } from '../db/schema';
+import { isStorageUnreachable } from '../storage/storage-errors';
 
 export type JobRow = typeof job.$inferSelect;
+
+const STORAGE_RETRY_MS = 5000;
 
 export type JobContext = {
   /** Records progress (0..1) and a phase word; also renews the heartbeat. */
@@ -86,6 +89,15 @@ export function createJobQueue({ db, log, staleAfterMs = 30_000, pollMs = 250 }:
       await db.update(job).set({ state: 'done', progress: 1, phase: 'done', lockedBy: null }).where(sql`${job.id} = ${row.id}`);
     } catch (e) {
       const message = e instanceof Error ? e.message : String(e);
+      // The object store being down is not the job's fault: try again every few seconds without using up an attempt.
+      if (isStorageUnreachable(e)) {
+        log.warn({ jobId: row.id, kind: row.kind }, 'object store unreachable; the job waits for it');
+        await db
+          .update(job)
+          .set({ state: 'queued', lastError: message, lockedBy: null, attempts: Math.max(0, row.attempts - 1), runAfter: new Date(Date.now() + STORAGE_RETRY_MS), phase: 'waiting for storage' })
+          .where(sql`${job.id} = ${row.id}`);
+        return;
+      }
       const final = row.attempts >= row.maxAttempts;
       log.warn({ jobId: row.id, kind: row.kind, attempt: row.attempts, err: e }, final ? 'job failed for good' : 'job failed; will retry');
       await db

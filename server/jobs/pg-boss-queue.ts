@@ -5,6 +5,7 @@ import type { Logger } from 'pino';
 import type { Db } from '../db/client';
 import { job } from '../db/schema';
 import type { JobContext, JobHandler, JobQueue, JobRow } from './job-queue';
+import { isStorageUnreachable } from '../storage/storage-errors';
 
 type Options = {
   db: Db;
@@ -16,6 +17,8 @@ type Options = {
 };
 
 type Message = { jobId: string };
+
+const STORAGE_WAIT_RETRIES = 20;
 
 /**
  * The job queue on a PostgreSQL server: pg-boss delivers, retries with backoff
@@ -103,6 +106,15 @@ export function createPgBossQueue({ db, url, log, timeoutSeconds, pollSeconds = 
       await db.update(job).set({ state: 'done', progress: 1, phase: 'done', lockedBy: null }).where(sql`${job.id} = ${row.id}`);
     } catch (e) {
       const message = e instanceof Error ? e.message : String(e);
+      // The object store being down is not the job's fault: pg-boss delivers again later (its backoff) and no attempt is used up.
+      if (isStorageUnreachable(e)) {
+        log.warn({ jobId: row.id, kind: row.kind }, 'object store unreachable; the job waits for it');
+        await db
+          .update(job)
+          .set({ state: 'queued', lastError: message, lockedBy: null, attempts: Math.max(0, row.attempts - 1), phase: 'waiting for storage' })
+          .where(sql`${job.id} = ${row.id}`);
+        throw e;
+      }
       const final = row.attempts >= row.maxAttempts;
       log.warn({ jobId: row.id, kind: row.kind, attempt: row.attempts, err: e }, final ? 'job failed for good' : 'job failed; will retry');
       await db
@@ -131,7 +143,9 @@ export function createPgBossQueue({ db, url, log, timeoutSeconds, pollSeconds = 
       await queueFor(kind);
       await boss.send(kind, { jobId: id } satisfies Message, {
         id,
-        retryLimit: maxAttempts - 1,
+        // Our row's attempts decide when a job has failed for good; pg-boss's budget only has to outlast
+        // deliveries that do not count (the object store down), with its backoff between them.
+        retryLimit: maxAttempts - 1 + STORAGE_WAIT_RETRIES,
         retryDelay: 1,
         retryBackoff: true,
         expireInSeconds: timeoutSeconds,

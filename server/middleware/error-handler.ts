@@ -3,6 +3,7 @@ import { APIError } from 'better-auth/api';
 import { ZodError } from 'zod';
 import { AppError } from '../errors';
 import { isStorageUnreachable, storageUnreachable } from '../storage/storage-errors';
+import { databaseCannotWrite } from '../db/disk-full';
 
 /** Unknown /api routes answer 404 in the common JSON shape. */
 export const apiNotFound: RequestHandler = (req, res) => {
@@ -15,6 +16,12 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   // The one place where the object store being down becomes an answer (503, try again); before the
   // database check, whose socket codes (ECONNREFUSED…) the S3 client's errors share.
   if (isStorageUnreachable(err)) err = storageUnreachable();
+  if (databaseCannotWrite(err)) {
+    req.log.error({ err }, 'the database cannot write (disk full or I/O error): writes are refused until space is freed');
+    res.set('Retry-After', '60');
+    res.status(503).json({ message: 'Cohesia cannot save changes right now: its database disk is full. Nothing was changed and reading still works; please try again later.', code: 'database_full', requestId });
+    return;
+  }
   // Before the other kinds: better-auth and drizzle wrap the driver error that says the database went away.
   if (databaseUnavailable(err)) {
     req.log.error({ err }, 'database unavailable');

@@ -9,6 +9,7 @@ import type { MultipartUploads } from '../storage/multipart-uploads';
 import { PART_SIZE, partCount } from '../storage/multipart-uploads';
 import type { ObjectStore } from '../storage/object-store';
 import { sanitiseFileName } from '../storage/file-names';
+import { isStorageUnreachable } from '../storage/storage-errors';
 import type { JobQueue } from '../jobs/job-queue';
 import type { Mailer } from '../mail/mailer';
 import { mailTemplates } from '../mail/templates';
@@ -251,6 +252,8 @@ export function createDepositingService(d: Deps) {
       try {
         await d.uploads.complete(file.objectKey, file.uploadId, parts);
       } catch (e) {
+        // A store that is down is not a refusal of the parts: the error middleware answers 503, and the upload can be completed later.
+        if (isStorageUnreachable(e)) throw e;
         d.log.warn({ err: e, fileId }, 'multipart completion refused');
         throw new AppError('upload_incomplete', 'The storage did not accept the parts as one file. Retry the upload.', 409);
       }

@@ -3,23 +3,8 @@
  * SVG drawn at 2× as PNG. Kept free of React so it can be tested on its own.
  */
 
-export type CsvCell = string | number | null | undefined;
-
-// Spreadsheets run a text cell beginning with one of these as a formula (OWASP "CSV injection").
-const FORMULA_START = /^[=+\-@\t\r]/;
-
-/** One CSV cell: numbers as written, text neutralised against formulas and quoted when needed. */
-export function csvCell(value: CsvCell): string {
-  if (value === null || value === undefined) return '';
-  if (typeof value === 'number') return Number.isFinite(value) ? String(value) : '';
-  const text = FORMULA_START.test(value) ? `'${value}` : value;
-  return /[",\r\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text;
-}
-
-/** A CSV document (RFC 4180, CRLF line ends): a header naming each column with its unit, then the rows. */
-export function toCsv(header: string[], rows: CsvCell[][]): string {
-  return [header, ...rows].map((r) => r.map(csvCell).join(',')).join('\r\n') + '\r\n';
-}
+// One CSV helper for every export of the app (formula injection neutralised there).
+export { csvCell, toCsv, type CsvCell } from '../../shared/csv';
 
 /** A file name from a figure title: lower case, ASCII letters and digits joined by hyphens. */
 export function fileStem(title: string): string {
