@@ -1,5 +1,5 @@
 // One measurement in its own process, so peak RSS belongs to it alone. Prints one JSON line.
-import { createReadStream, openSync, readSync, closeSync, statSync } from 'node:fs';
+import { createReadStream, openSync, readSync, closeSync, statSync, readdirSync, readFileSync } from 'node:fs';
 import { createGunzip, type ZlibOptions } from 'node:zlib';
 import { analyzeStream } from '../../server/ingest/analyze-stream';
 
@@ -18,6 +18,39 @@ function endAtLine(path: string, approx: number): number {
 function cpuSince(c0: NodeJS.CpuUsage): number {
   const c = process.cpuUsage(c0);
   return Math.round((c.user + c.system) / 1e4) / 100;
+}
+
+/** CPU seconds per thread id from /proc (Linux; empty elsewhere). */
+function threadTimes(): Map<string, number> {
+  const out = new Map<string, number>();
+  try {
+    for (const tid of readdirSync('/proc/self/task')) {
+      const f = readFileSync(`/proc/self/task/${tid}/stat`, 'utf8');
+      const rest = f.slice(f.lastIndexOf(')') + 2).split(' ');
+      out.set(tid, (Number(rest[11]) + Number(rest[12])) / 100); // utime + stime in USER_HZ (100) ticks
+    }
+  } catch {
+    // Not Linux: no per-thread figures.
+  }
+  return out;
+}
+
+// Sampled while the line runs, because the ingest's worker thread has ended (and left /proc) by the end.
+const lastSeen = new Map<string, number>();
+const sampleThreads = () => threadTimes().forEach((v, k) => lastSeen.set(k, Math.max(v, lastSeen.get(k) ?? 0)));
+const sampler = setInterval(sampleThreads, 50);
+
+/**
+ * CPU seconds of the main thread and of the busiest other thread (the ingest's worker, zlib or DuckDB's busiest
+ * thread): on a shared machine wall time follows the load, while these bound the wall time on free cores.
+ */
+function threadCpu(): { main: number; otherBusiest: number } | undefined {
+  clearInterval(sampler);
+  sampleThreads();
+  if (lastSeen.size === 0) return undefined;
+  let other = 0;
+  for (const [tid, v] of lastSeen) if (Number(tid) !== process.pid && v > other) other = v;
+  return { main: lastSeen.get(String(process.pid)) ?? NaN, otherBusiest: other };
 }
 
 async function run(): Promise<Record<string, unknown>> {
@@ -76,4 +109,4 @@ async function run(): Promise<Record<string, unknown>> {
   return { kind, rows, bytes: bytes || size, seconds: (performance.now() - t0) / 1000, maxRssMB: process.resourceUsage().maxRSS / 1024, cpuSeconds: cpuSince(cpu0) };
 }
 
-run().then((r) => process.stdout.write(JSON.stringify(r) + '\n'));
+run().then((r) => process.stdout.write(JSON.stringify({ ...r, threadCpu: threadCpu() }) + '\n'));

@@ -16,8 +16,9 @@
  *                ─▶ createIngest (shared/engine/ingest.ts), in this thread:
  *                     · cleanRows: units, finite positions, duplicate/order checks per track, one pass
  *                     · frame-sorted files stream straight into the FramePipeline; the first
- *                       maxReorderRows rows are also kept so a file found out of order can still be
- *                       reordered (streamed frames are then discarded and replayed sorted)
+ *                       maxReorderRows rows are also kept (the clean batches themselves, no growing copy) so
+ *                       a file found out of order can still be reordered (streamed frames are then discarded
+ *                       and replayed sorted)
  *                     · FramePipeline: per-track Gaussian kernels (contiguous ring per track); frames
  *                       emitted L frames later as typed-array views
  *                     · FrameStatistics: one pass per frame (centroid, radius, speed, radial bins);
@@ -25,8 +26,10 @@
  *                       (sort-and-sweep keeping the x-order between frames; cell list from
  *                       bruteForceBelow = 260); nearest neighbours every round(neighbourSampleInterval × fps)-th
  *                       frame, fused with the pair pass by brute force for small groups
- *                     · velocity autocorrelation: its samples are batched (16k) to the worker, which runs
- *                       the same accumulator; the result is fetched after completeInput(), before end()
+ *                     · velocity autocorrelation, and (mode 'full') the speed and component histograms and
+ *                       moments: the samples are batched (16k, whole frames, buffers handed back) to the
+ *                       worker, which runs the same accumulator and adds each frame to the same histograms
+ *                       and moments as this thread would; fetched after completeInput(), before end()
  *
  * Both threads run pure functions of shared/ (the worker gets their source text, no module loader).
  * Settings that trade cost for sampling (stored in the result's parameters): neighbourSampleInterval (0.04 s),
@@ -82,7 +85,7 @@ export async function analyzeStream(
   const ingest = createIngest({
     ...options,
     source: { ...options.source, compression: gzip ? 'gzip' : 'none' },
-    createAutocorrelation: options.createAutocorrelation ?? ((maxLag, stride) => text!.createAutocorrelation(maxLag, stride)),
+    createAutocorrelation: options.createAutocorrelation ?? ((maxLag, stride, velocity) => text!.createAutocorrelation(maxLag, stride, velocity)),
   });
   const report = () => onProgress?.({ bytesIn, bytesParsed: ingest.bytesRead, rows: ingest.rowsRead });
   // gzip already inflates on a second thread (libuv pool): parsing in the worker too measured slower on two cores.

@@ -1,7 +1,9 @@
 import { Worker } from 'node:worker_threads';
 import type { Ingest } from '../../shared/engine/ingest';
+import type { VelocitySampleAccumulator, VelocitySampleSpec, VelocitySampleStatistics } from '../../shared/engine/frame-statistics';
+import { GrowableHistogram } from '../../shared/engine/growable-histogram';
 import { parseDataBlock, type BlockLayout, type ParsedBlock } from '../../shared/engine/text-parser';
-import { createAutocorrelationAccumulator, type AutocorrelationAccumulator } from '../../shared/stats/index';
+import { createAutocorrelationAccumulator, createMomentAccumulator, type AutocorrelationAccumulator } from '../../shared/stats/index';
 
 /** Text bytes seen before the worker is started (small inputs never start one). */
 export const WORKER_AFTER_BYTES = 1 << 20;
@@ -16,6 +18,8 @@ const LOCAL_PARSE_PENDING = 3;
  * batches keep the worker responsive to parse requests, which it serves first.
  */
 const MAX_ACF_QUEUED = 32;
+/** Autocorrelation batches queued beyond which the next block is parsed here, not in the worker (balance). */
+const ACF_BACKLOG = MAX_ACF_QUEUED / 2;
 const ACF_BATCH = 1 << 14;
 
 interface ParseReply {
@@ -30,6 +34,13 @@ interface AcfReply {
   acfId: number;
   rho: Float64Array;
   pairs: Float64Array;
+  velocity: VelocitySampleStatistics | null;
+}
+
+/** A processed autocorrelation batch's buffers, handed back for the next batches. */
+interface AcfBuffers {
+  acfBuffers: number;
+  buffers: ArrayBuffer[];
 }
 
 // The worker runs the engine's self-contained functions from their source text: no module loader is needed,
@@ -39,8 +50,11 @@ const { parentPort, workerData } = require("node:worker_threads");
 const __name = (f) => f;
 const parseDataBlock = ${parseDataBlock.toString()};
 const createAutocorrelationAccumulator = ${createAutocorrelationAccumulator.toString()};
+const createMomentAccumulator = ${createMomentAccumulator.toString()};
+const GrowableHistogram = ${GrowableHistogram.toString()};
 const queued = new Int32Array(workerData.queued);
 const accs = new Map();
+const vels = new Map();
 const pool = [];
 parentPort.on("message", (m) => {
   if (m.type === "parse") {
@@ -58,22 +72,51 @@ parentPort.on("message", (m) => {
 const acfQ = [];
 function drainAcf() {
   const m = acfQ.shift();
-  if (m.type === "acf-init") accs.set(m.id, createAutocorrelationAccumulator(m.maxLag, m.stride));
-  else if (m.type === "acf") {
+  if (m.type === "acf-init") {
+    accs.set(m.id, createAutocorrelationAccumulator(m.maxLag, m.stride));
+    // Speed and component statistics, per frame and in the order of FrameStatistics.add (same numbers).
+    if (m.velocity) {
+      const v = m.velocity;
+      vels.set(m.id, { three: v.dims === 3, sp: new Float64Array(256), speedHist: new GrowableHistogram(v.speedBins, 1, false),
+        compHist: [0, 1, 2].map(() => new GrowableHistogram(v.componentBins, 1, true)), speed: createMomentAccumulator(),
+        comp: [0, 1, 2].map(() => createMomentAccumulator()) });
+    }
+  } else if (m.type === "acf") {
     const a = accs.get(m.id);
+    const v = vels.get(m.id);
     for (let s = 0; s < m.n; ) {
       let e = s + 1;
       while (e < m.n && m.frame[e] === m.frame[s]) e++;
-      a.addFrame(m.frame[s], m.track.subarray(s, e), m.vx.subarray(s, e), m.vy.subarray(s, e), m.vz.subarray(s, e), e - s);
+      const n = e - s, ux = m.vx.subarray(s, e), uy = m.vy.subarray(s, e), uz = m.vz.subarray(s, e);
+      a.addFrame(m.frame[s], m.track.subarray(s, e), ux, uy, uz, n);
+      if (v) {
+        if (v.sp.length < n) v.sp = new Float64Array(2 * n);
+        const sp = v.sp;
+        for (let k = 0; k < n; k++) sp[k] = Math.sqrt(ux[k] * ux[k] + uy[k] * uy[k] + uz[k] * uz[k]);
+        v.speedHist.addCounts(sp, n);
+        v.compHist[0].addCounts(ux, n);
+        v.compHist[1].addCounts(uy, n);
+        if (v.three) v.compHist[2].addCounts(uz, n);
+        v.speed.addBatch(sp, n);
+        v.comp[0].addBatch(ux, n);
+        v.comp[1].addBatch(uy, n);
+        if (v.three) v.comp[2].addBatch(uz, n);
+      }
       s = e;
     }
     Atomics.sub(queued, 0, 1);
     Atomics.notify(queued, 0);
+    const buffers = [m.frame.buffer, m.track.buffer, m.vx.buffer, m.vy.buffer, m.vz.buffer];
+    parentPort.postMessage({ acfBuffers: m.id, buffers }, buffers);
   } else if (m.type === "acf-evict") accs.get(m.id).evictBefore(m.frame);
   else if (m.type === "acf-result") {
     const r = accs.get(m.id).result();
+    const v = vels.get(m.id);
+    const mom = (x) => ({ count: x.count, mean: x.mean, m2: x.m2, m3: x.m3, m4: x.m4 });
+    const velocity = v ? { speedHist: v.speedHist.state(), compHist: v.compHist.map((h) => h.state()), speed: mom(v.speed), comp: v.comp.map(mom) } : null;
     accs.delete(m.id);
-    parentPort.postMessage({ acfId: m.id, rho: r.rho, pairs: r.pairs });
+    vels.delete(m.id);
+    parentPort.postMessage({ acfId: m.id, rho: r.rho, pairs: r.pairs, velocity });
   }
   if (acfQ.length > 0) setImmediate(drainAcf);
 }
@@ -89,12 +132,14 @@ parentPort.postMessage({ ready: true });
  *   here by the full parser, so results and messages are unchanged;
  * - the velocity autocorrelation (both plain and gzip): the samples are
  *   batched to the worker, which runs the same accumulator (after any parse
- *   request waiting: parsing is on the critical path); its result is fetched
- *   before the ingest ends.
+ *   request waiting: parsing is on the critical path) and, in mode 'full',
+ *   the speed and component histograms and moments of the same samples; the
+ *   result is fetched before the ingest ends.
  * Buffers are recycled: the columns of a consumed block go back to the worker
  * with the next request, the text buffer comes back with the reply (fewer
  * fresh allocations, page faults and GC for external memory).
- * Validation, kinematics and the other statistics stay in the main thread (one sequential stream).
+ * Validation, kinematics and the other statistics stay in the main thread (one sequential stream); what
+ * depends only on the velocity samples moves, as the main thread is the busier one in mode 'full'.
  */
 export class ParseOffload {
   private worker: Worker | null = null;
@@ -128,10 +173,13 @@ export class ParseOffload {
     private readonly autocorrelation = true,
   ) {}
 
-  /** Factory for IngestOptions.createAutocorrelation: in the worker when one runs, else in this thread. */
-  createAutocorrelation(maxLag: number, originStride: number): AutocorrelationAccumulator {
+  /**
+   * Factory for IngestOptions.createAutocorrelation: in the worker when one runs (with the speed and component
+   * statistics when `velocity` is given), else in this thread.
+   */
+  createAutocorrelation(maxLag: number, originStride: number, velocity?: VelocitySampleSpec): VelocitySampleAccumulator {
     if (!this.autocorrelation || !this.worker || this.broken || !this.acceptRemote) return createAutocorrelationAccumulator(maxLag, originStride);
-    this.remote = new RemoteAutocorrelation(this, this.nextId++, maxLag, originStride);
+    this.remote = new RemoteAutocorrelation(this, this.nextId++, maxLag, originStride, velocity);
     return this.remote;
   }
 
@@ -212,8 +260,10 @@ export class ParseOffload {
     try {
       const w = new Worker(WORKER_SOURCE, { eval: true, workerData: { queued: this.acfQueued.buffer } });
       this.readyWait = new Promise<void>((r) => (this.onReady = r));
-      w.on('message', (m: ParseReply | AcfReply | { ready: true }) => {
-        if ('ready' in m) {
+      w.on('message', (m: ParseReply | AcfReply | AcfBuffers | { ready: true }) => {
+        if ('acfBuffers' in m) {
+          if (this.remote?.id === m.acfBuffers) this.remote.recycle(m.buffers);
+        } else if ('ready' in m) {
           this.ready = true;
           this.onReady();
         } else if ('acfId' in m) {
@@ -245,11 +295,11 @@ export class ParseOffload {
   }
 
   private send(bytes: Uint8Array): void {
-    // Worker behind (two blocks still unparsed, as when the main thread has little else to do): this block
-    // is parsed here at its turn, so both threads parse.
+    // Worker behind (blocks still unparsed, as when the main thread has little else to do; or a backlog of
+    // autocorrelation batches, as in mode 'full' where it has more to do): this block is parsed here at its turn.
     let pending = 0;
     for (const q of this.queue) if (q.reply && !q.done) pending++;
-    if (pending >= LOCAL_PARSE_PENDING) {
+    if (pending >= LOCAL_PARSE_PENDING || Atomics.load(this.acfQueued, 0) > ACF_BACKLOG) {
       this.queue.push({ reply: null, local: bytes, bytes: bytes.length, done: true });
       return;
     }
@@ -276,7 +326,12 @@ export class ParseOffload {
   private async deliverOldest(): Promise<void> {
     const item = this.queue.shift()!;
     // Parsed here by the full parser (its fast path is warm from the first blocks; same numbers as the worker's).
-    if (item.local) return this.ingest.push(item.local);
+    if (item.local) {
+      this.ingest.push(item.local);
+      // The parser copies what it keeps: the text buffer serves the next blocks.
+      if (this.spareBytes.length < 8) this.spareBytes.push(item.local.buffer as ArrayBuffer);
+      return;
+    }
     const r = await item.reply!;
     if (!r.block) return this.ingest.push(r.bytes);
     this.ingest.pushParsed(r.block, r.block.count, item.bytes);
@@ -294,21 +349,30 @@ export class ParseOffload {
 }
 
 /**
- * Velocity-autocorrelation accumulator computed in the worker: samples are
- * batched (16k) and sent in order, evictions forwarded; result() is
- * available after fetch(). Same estimator, same numbers as in this thread.
+ * Velocity-autocorrelation accumulator computed in the worker (with the speed and component statistics when a
+ * {@link VelocitySampleSpec} is given): samples are batched (16k, whole frames, so the worker adds each frame as
+ * this thread would) and sent in order, evictions forwarded; result() is available after fetch(). Same
+ * estimator, same numbers as in this thread. Batch buffers come back from the worker for reuse.
  */
-class RemoteAutocorrelation implements AutocorrelationAccumulator {
+class RemoteAutocorrelation implements VelocitySampleAccumulator {
   private n = 0;
-  private frame = new Float64Array(ACF_BATCH);
-  private track = new Int32Array(ACF_BATCH);
-  private vx = new Float64Array(ACF_BATCH);
-  private vy = new Float64Array(ACF_BATCH);
-  private vz = new Float64Array(ACF_BATCH);
-  private cached: { rho: Float64Array; pairs: Float64Array } | null = null;
+  private frame!: Float64Array;
+  private track!: Int32Array;
+  private vx!: Float64Array;
+  private vy!: Float64Array;
+  private vz!: Float64Array;
+  private readonly spare: ArrayBuffer[][] = [];
+  private cached: { rho: Float64Array; pairs: Float64Array; velocity: VelocitySampleStatistics | null } | null = null;
+  readonly velocityStatistics?: () => VelocitySampleStatistics;
 
-  constructor(private readonly link: ParseOffload, private readonly id: number, maxLag: number, originStride: number) {
-    link.post({ type: 'acf-init', id, maxLag, stride: originStride });
+  constructor(private readonly link: ParseOffload, readonly id: number, maxLag: number, originStride: number, velocity?: VelocitySampleSpec) {
+    link.post({ type: 'acf-init', id, maxLag, stride: originStride, velocity: velocity ?? null });
+    this.allocate(ACF_BATCH);
+    if (velocity)
+      this.velocityStatistics = () => {
+        if (!this.cached?.velocity) throw new Error('the velocity statistics computed in the worker were not fetched before the end');
+        return this.cached.velocity;
+      };
   }
 
   add(track: number, frame: number, vx: number, vy: number, vz: number): void {
@@ -316,15 +380,20 @@ class RemoteAutocorrelation implements AutocorrelationAccumulator {
   }
 
   addFrame(frame: number, track: ArrayLike<number>, vx: ArrayLike<number>, vy: ArrayLike<number>, vz: ArrayLike<number>, count: number): void {
+    if (this.n + count > this.frame.length) {
+      this.flush();
+      if (count > this.frame.length) this.allocate(count);
+    }
+    const k0 = this.n;
     for (let i = 0; i < count; i++) {
-      if (this.n === ACF_BATCH) this.flush();
-      const k = this.n++;
+      const k = k0 + i;
       this.frame[k] = frame;
       this.track[k] = track[i];
       this.vx[k] = vx[i];
       this.vy[k] = vy[i];
       this.vz[k] = vz[i];
     }
+    this.n += count;
   }
 
   evictBefore(frame: number): void {
@@ -335,7 +404,7 @@ class RemoteAutocorrelation implements AutocorrelationAccumulator {
   async fetch(): Promise<void> {
     this.flush();
     const r = await this.link.requestAcf(this.id);
-    this.cached = { rho: r.rho, pairs: r.pairs };
+    this.cached = { rho: r.rho, pairs: r.pairs, velocity: r.velocity };
   }
 
   result(): { rho: Float64Array; pairs: Float64Array } {
@@ -347,6 +416,20 @@ class RemoteAutocorrelation implements AutocorrelationAccumulator {
     return NaN;
   }
 
+  /** Buffers of a batch the worker has processed. */
+  recycle(buffers: ArrayBuffer[]): void {
+    if (this.spare.length < 4 && buffers[0].byteLength === 8 * ACF_BATCH) this.spare.push(buffers);
+  }
+
+  private allocate(size: number): void {
+    const b = size === ACF_BATCH ? this.spare.pop() : undefined;
+    this.frame = b ? new Float64Array(b[0]) : new Float64Array(size);
+    this.track = b ? new Int32Array(b[1]) : new Int32Array(size);
+    this.vx = b ? new Float64Array(b[2]) : new Float64Array(size);
+    this.vy = b ? new Float64Array(b[3]) : new Float64Array(size);
+    this.vz = b ? new Float64Array(b[4]) : new Float64Array(size);
+  }
+
   private flush(): void {
     if (this.n === 0) return;
     this.link.throttle(MAX_ACF_QUEUED);
@@ -354,11 +437,7 @@ class RemoteAutocorrelation implements AutocorrelationAccumulator {
     const msg = { type: 'acf', id: this.id, n: this.n, frame: this.frame, track: this.track, vx: this.vx, vy: this.vy, vz: this.vz };
     this.link.post(msg, [this.frame.buffer, this.track.buffer, this.vx.buffer, this.vy.buffer, this.vz.buffer] as ArrayBuffer[]);
     this.n = 0;
-    this.frame = new Float64Array(ACF_BATCH);
-    this.track = new Int32Array(ACF_BATCH);
-    this.vx = new Float64Array(ACF_BATCH);
-    this.vy = new Float64Array(ACF_BATCH);
-    this.vz = new Float64Array(ACF_BATCH);
+    this.allocate(ACF_BATCH);
   }
 }
 

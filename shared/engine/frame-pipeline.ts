@@ -130,7 +130,7 @@ export class FramePipeline {
       this.issues.add('track-gap', () => `${rowLabel(line)}: track ${this.trackNames[track]} jumps from frame ${from} to frame ${frame} (${gap} frame${gap === 1 ? '' : 's'} missing); derivatives are not taken across the gap.`, line);
       ts.run = 0;
     }
-    if (this.s.mode === 'full' && ts.last > -Infinity && ts.px === ts.px) {
+    if (this.full && ts.last > -Infinity && ts.px === ts.px) {
       const dx = x - ts.px, dy = y - ts.py, dz = this.dims === 3 ? z - ts.pz : 0;
       const speed = Math.sqrt(dx * dx + dy * dy + dz * dz) / ((frame - ts.last) * this.dt);
       if (speed > this.s.jumpSpeedLimit)

@@ -29,6 +29,43 @@ import { IssueCollector, rowLabel } from './issues';
 import { QuickLookSampler } from './quick-look';
 import type { EngineSettings } from './settings';
 
+/** Bins of the speed histogram (the component histograms use the setting histogramBins). */
+export const SPEED_HISTOGRAM_BINS = 1024;
+
+/** What an autocorrelation factory is told when it may also take the speed and component statistics. */
+export interface VelocitySampleSpec {
+  componentBins: number;
+  speedBins: number;
+  dims: 2 | 3;
+}
+
+/** Moments of one variable as a {@link MomentAccumulator} reports them. */
+export interface MomentState {
+  count: number;
+  mean: number;
+  m2: number;
+  m3: number;
+  m4: number;
+}
+
+/** Speed and component histograms (GrowableHistogram.state) and moments, computed per frame from the samples. */
+export interface VelocitySampleStatistics {
+  speedHist: { max: number; counts: Float64Array };
+  compHist: { max: number; counts: Float64Array }[];
+  speed: MomentState;
+  comp: MomentState[];
+}
+
+/**
+ * An autocorrelation accumulator that may also compute the speed and velocity-component histograms and moments
+ * of its samples — frame by frame in the same order as {@link FrameStatistics}, so the numbers are identical (a
+ * worker thread does it: the main thread is the busier one). Ready with the autocorrelation's result.
+ */
+export type VelocitySampleAccumulator = AutocorrelationAccumulator & { velocityStatistics?: () => VelocitySampleStatistics };
+
+/** Factory of the velocity autocorrelation (IngestOptions.createAutocorrelation). */
+export type AutocorrelationFactory = (maxLag: number, originStride: number, velocity?: VelocitySampleSpec) => VelocitySampleAccumulator;
+
 /** A frame as handed to the statistics: the view plus track indices and file lines. */
 export interface EmittedFrame {
   frame: number;
@@ -77,7 +114,10 @@ export class FrameStatistics {
   private readonly nnHist: GrowableHistogram;
   private readonly radial: GrowableHistogram;
   private readonly series: Record<string, SeriesDownsampler> = {};
-  private readonly acf: AutocorrelationAccumulator | null;
+  private readonly acf: VelocitySampleAccumulator | null;
+  /** Speed and component histograms and moments come from the autocorrelation accumulator (a worker). */
+  private readonly remoteVelocity: boolean;
+  private remoteLoaded = false;
   private readonly acfMaxLag: number;
   private pairTracker: PairTracker | null = null;
   private pairDistance: number | null;
@@ -110,17 +150,18 @@ export class FrameStatistics {
     private readonly fps: number,
     private readonly issues: IssueCollector,
     private readonly trackNames: string[],
-    createAutocorrelation: (maxLag: number, originStride: number) => AutocorrelationAccumulator = createAutocorrelationAccumulator,
+    createAutocorrelation: AutocorrelationFactory = createAutocorrelationAccumulator,
   ) {
     const full = s.mode === 'full';
     this.compHist = [0, 1, 2].map(() => new GrowableHistogram(s.histogramBins, 1, true));
-    this.speedHist = new GrowableHistogram(1024, 1, false);
+    this.speedHist = new GrowableHistogram(SPEED_HISTOGRAM_BINS, 1, false);
     this.nnHist = new GrowableHistogram(1024, 1, false);
     this.radial = new GrowableHistogram(s.radialBins, 5, false);
     for (const k of ['individuals', 'cx', 'cy', 'cz', 'radius', 'meanSpeed', 'polarization', 'milling', 'meanNearestNeighbour'])
       this.series[k] = new SeriesDownsampler(s.seriesPoints);
     this.acfMaxLag = Math.max(1, Math.round(s.autocorrelationMaxLag * fps));
-    this.acf = full ? createAutocorrelation(this.acfMaxLag, s.autocorrelationOriginStride) : null;
+    this.acf = full ? createAutocorrelation(this.acfMaxLag, s.autocorrelationOriginStride, { componentBins: s.histogramBins, speedBins: SPEED_HISTOGRAM_BINS, dims }) : null;
+    this.remoteVelocity = typeof this.acf?.velocityStatistics === 'function';
     this.pairDistance = s.pairDistance;
     this.nnStride = Math.max(1, Math.round(s.neighbourSampleInterval * fps));
     this.resolvedSwapDistance = s.identitySwapDistance;
@@ -168,6 +209,10 @@ export class FrameStatistics {
     const trB = this.trackBuf;
     const three = dims === 3;
     const cx = c.x, cy = c.y, cz = c.z;
+    // Loop invariants in locals (the histogram grows its channels in place, so these stay valid).
+    const radial = this.radial;
+    const [cAll, cV, cSpeed, cA, cAr] = radial.channels;
+    const ax = view.ax, ay = view.ay, az = view.az;
     // Hot loop: one pass per row; moments are added per frame from the compacted speed and component columns.
     for (let i = 0; i < n; i++) {
       const dx = x[i] - cx, dy = y[i] - cy, dz = three ? z[i] - cz : 0;
@@ -179,8 +224,8 @@ export class FrameStatistics {
       }
       let k = -1;
       if (full) {
-        k = this.radial.index(r);
-        if (k >= 0) this.radial.channels[R_ALL][k]++;
+        k = radial.index(r);
+        if (k >= 0) cAll[k]++;
       }
       if (hasV) {
         const ux = vx[i], uy = vy[i], uz = three ? vz[i] : 0;
@@ -194,27 +239,30 @@ export class FrameStatistics {
           trB[nSpeed] = track[i];
           nSpeed++;
           if (full && k >= 0) {
-            this.radial.channels[R_V][k]++;
-            this.radial.channels[R_SPEED][k] += sp;
+            cV[k]++;
+            cSpeed[k] += sp;
           }
         }
       }
       if (full && hasA && k >= 0 && r > 0) {
-        const ar = (view.ax![i] * dx + view.ay![i] * dy + (three ? view.az![i] * dz : 0)) / r;
+        const ar = (ax![i] * dx + ay![i] * dy + (three ? az![i] * dz : 0)) / r;
         if (ar === ar) {
-          this.radial.channels[R_A][k]++;
-          this.radial.channels[R_AR][k] += ar;
+          cA[k]++;
+          cAr[k] += ar;
         }
       }
     }
+    const remote = this.remoteVelocity;
     if (nSpeed > 0 && full) {
-      this.speedHist.addCounts(spB, nSpeed);
-      this.compHist[0].addCounts(uxB, nSpeed);
-      this.compHist[1].addCounts(uyB, nSpeed);
-      if (three) this.compHist[2].addCounts(uzB, nSpeed);
+      if (!remote) {
+        this.speedHist.addCounts(spB, nSpeed);
+        this.compHist[0].addCounts(uxB, nSpeed);
+        this.compHist[1].addCounts(uyB, nSpeed);
+        if (three) this.compHist[2].addCounts(uzB, nSpeed);
+      }
       this.acf!.addFrame(f.frame, trB, uxB, uyB, uzB, nSpeed);
     }
-    if (nSpeed > 0) {
+    if (nSpeed > 0 && !remote) {
       this.speedAcc.addBatch(spB, nSpeed);
       this.comp[0].addBatch(uxB, nSpeed);
       this.comp[1].addBatch(uyB, nSpeed);
@@ -359,6 +407,7 @@ export class FrameStatistics {
   /** Summary and plot series; `tracks` is the number of tracks in the file. */
   summary(tracks: number) {
     const full = this.s.mode === 'full';
+    this.loadRemoteVelocity();
     const m = (a: MomentAccumulator) => momentsFromAccumulator(a);
     const comps = (this.dims === 3 ? ['vx', 'vy', 'vz'] : ['vx', 'vy']).map((name, i) => {
       const mo = m(this.comp[i]);
@@ -419,6 +468,17 @@ export class FrameStatistics {
         autocorrelation: acfRes ? { lagS: Array.from(acfRes.rho, (_, i) => i * lagStep), rho: Array.from(acfRes.rho) } : null,
       },
     };
+  }
+
+  /** Takes over the speed and component statistics computed with the autocorrelation (fresh accumulators here). */
+  private loadRemoteVelocity(): void {
+    if (!this.remoteVelocity || this.remoteLoaded) return;
+    this.remoteLoaded = true;
+    const v = this.acf!.velocityStatistics!();
+    this.speedHist.load(v.speedHist);
+    v.compHist.forEach((h, i) => this.compHist[i].load(h));
+    this.speedAcc.merge(v.speed as MomentAccumulator);
+    v.comp.forEach((m, i) => this.comp[i].merge(m as MomentAccumulator));
   }
 
   /** Normalised histogram (density) over the used range, re-binned to about `bins` bins. */

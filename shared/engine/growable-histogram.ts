@@ -53,6 +53,19 @@ export class GrowableHistogram {
     }
   }
 
+  /** Range and channel-0 counts, to carry the histogram to another thread (see {@link load}). */
+  state(): { max: number; counts: Float64Array } {
+    return { max: this.max, counts: this.channels[0].slice() };
+  }
+
+  /** Takes over a {@link state} of a histogram made with the same arguments (range and scale computed as in grow). */
+  load(st: { max: number; counts: Float64Array }): void {
+    this.max = st.max;
+    this.lo = this.symmetric ? -this.max : 0;
+    this.scale = this.max > 0 ? this.size / (this.max - this.lo) : 0;
+    this.channels[0].set(st.counts);
+  }
+
   add(v: number, channel: number, w: number): void {
     const k = this.index(v);
     if (k >= 0) this.channels[channel][k] += w;

@@ -1,7 +1,7 @@
-import { quantileSorted, type AutocorrelationAccumulator } from '../stats/index';
+import { quantileSorted } from '../stats/index';
 import type { ColumnMapping } from './columns';
 import { FramePipeline } from './frame-pipeline';
-import { FrameStatistics } from './frame-statistics';
+import { FrameStatistics, type AutocorrelationFactory } from './frame-statistics';
 import { IssueCollector, rowLabel } from './issues';
 import { buildResultDocument, type InputDescription, type ResultDocument } from './result-document';
 import { DelimitedTextParser, type BlockLayout, type FileLayout, type ParsedBlock, type RowBatch } from './text-parser';
@@ -17,9 +17,9 @@ export interface IngestOptions {
   source?: { name?: string; compression?: 'none' | 'gzip'; bytes?: number };
   /**
    * Makes the velocity-autocorrelation accumulator (default: in this thread). A server may compute it in a
-   * worker; its result() must be ready when end() is called.
+   * worker (optionally with the speed and component statistics); its result() must be ready when end() is called.
    */
-  createAutocorrelation?: (maxLag: number, originStride: number) => AutocorrelationAccumulator;
+  createAutocorrelation?: AutocorrelationFactory;
 }
 
 /** An ingest in progress: feed bytes with push(), then call end(). */
@@ -82,7 +82,7 @@ export interface RowColumns {
 
 const FLOAT_COLS = ['key', 't', 'x', 'y', 'z', 'vx', 'vy', 'vz', 'ax', 'ay', 'az'] as const;
 
-/** Growable {@link RowColumns}: the per-batch clean rows and the reorder store. */
+/** Growable {@link RowColumns}: the per-batch clean rows (a batch's columns become a chunk of the reorder store). */
 class RowStore implements RowColumns {
   count = 0;
   track = new Int32Array(0);
@@ -106,8 +106,8 @@ class RowStore implements RowColumns {
   /** Makes room for `n` rows in all (keeps the content). */
   reserve(n: number): void {
     if (n <= this.track.length) return;
-    // ×4: the reorder store grows to maxReorderRows rows in few copies.
-    const cap = Math.max(n, 4 * this.track.length);
+    // ×2: batches vary a little in size; growing rarely keeps the columns in place.
+    const cap = Math.max(n, 2 * this.track.length);
     const grow = <T extends Int32Array | Float64Array>(old: T, make: (k: number) => T): T => {
       const g = make(cap);
       g.set(old.subarray(0, this.count));
@@ -151,11 +151,14 @@ export function createIngest(options: IngestOptions = {}): Ingest {
   let has: Record<Num, boolean> = Object.fromEntries(NUM.map((k) => [k, false])) as Record<Num, boolean>;
   // Last frame/time per track (NaN: not seen), for the duplicate and order checks on arrival.
   let lastKey = new Float64Array(1024).fill(NaN);
-  // Rows kept in file order while fewer than maxReorderRows, so that a file found out of order can be reordered.
-  let store: RowStore | null = new RowStore();
+  // Rows kept in file order while fewer than maxReorderRows, so that a file found out of order can be reordered:
+  // the clean batches themselves (first `count` rows of each), not a growing copy (that copy and its growth
+  // cost more than the rest of mode 'basic' on the first 500k rows).
+  let store: { rows: RowStore; count: number }[] | null = [];
+  let storeCount = 0;
   let storeSorted = true;
   let storeLastKey = -Infinity;
-  const clean = new RowStore();
+  let clean = new RowStore();
   let frames = new Float64Array(0);
   let pipeline: FramePipeline | null = null;
   let stats: FrameStatistics | null = null;
@@ -270,17 +273,18 @@ export function createIngest(options: IngestOptions = {}): Ingest {
   function onRows(b: RowBatch): void {
     if (failed) return;
     cleanRows(b);
-    const n = clean.count;
+    const batch = clean;
+    const n = batch.count;
     rows += n;
     if (!store) {
-      if (!feed(clean, null, 0, n)) failed = true;
+      if (!feed(batch, null, 0, n)) failed = true;
       return;
     }
-    // The first maxReorderRows rows go to the store too; the order is checked on them.
-    const from = store.count;
-    const take = Math.min(n, s.maxReorderRows - from);
+    if (n === 0) return;
+    // The first maxReorderRows rows go to the store too (this batch's columns, kept); the order is checked on them.
+    const take = Math.min(n, s.maxReorderRows - storeCount);
     if (storeSorted) {
-      const key = clean.key;
+      const key = batch.key;
       for (let i = 0; i < take; i++) {
         if (key[i] < storeLastKey) {
           storeSorted = false;
@@ -289,13 +293,15 @@ export function createIngest(options: IngestOptions = {}): Ingest {
         storeLastKey = key[i];
       }
     }
-    store.appendFirst(clean, take, presentColumns(), dims);
-    const full = store.count >= s.maxReorderRows;
+    store.push({ rows: batch, count: take });
+    storeCount += take;
+    clean = new RowStore(n);
+    const full = storeCount >= s.maxReorderRows;
     if (!storeSorted) {
       // Out of order: streamed frames are discarded; the stored rows are reordered at the end (or refused).
       if (pipeline) discardPipeline();
       if (full) {
-        const line = store.line[store.count - 1];
+        const line = batch.line[take - 1];
         issues.add(
           'unsorted',
           `${rowLabel(line)}: the file is not sorted by ${has.frame ? 'frame' : 'time'} and is too large to reorder in memory (more than ${s.maxReorderRows.toLocaleString('en-US')} rows). Sort it by ${has.frame ? 'frame' : 'time'} (then track) and upload it again.`,
@@ -308,11 +314,11 @@ export function createIngest(options: IngestOptions = {}): Ingest {
     // Sorted so far: stream straight into the pipeline (started once the frame rate is known).
     if (!pipeline) {
       if (!startPipeline(store, full) || failed) return;
-      if (!feed(store, null, 0, store.count)) return void (failed = true);
-    } else if (!feed(store, null, from, store.count)) return void (failed = true);
+      if (!feedStore(store)) return void (failed = true);
+    } else if (!feed(batch, null, 0, take)) return void (failed = true);
     if (full) {
       store = null;
-      if (take < n && !feed(clean, null, take, n)) failed = true;
+      if (take < n && !feed(batch, null, take, n)) failed = true;
     }
   }
 
@@ -323,24 +329,25 @@ export function createIngest(options: IngestOptions = {}): Ingest {
   }
 
   /** Median time step within tracks over the first 20,000 steps; `steps` = how many were found. */
-  function estimateFrameRate(st: RowColumns): { fps: number; steps: number } {
+  function estimateFrameRate(chunks: { rows: RowColumns; count: number }[]): { fps: number; steps: number } {
     const steps: number[] = [];
     const lastT = new Map<number, [number, number]>();
-    for (let i = 0; i < st.count && steps.length < 20000; i++) {
-      const tr = st.track[i], f = st.key[i], t = st.t[i];
-      const p = lastT.get(tr);
-      if (p) {
-        const df = has.frame ? f - p[1] : 1;
-        if (t > p[0] && df > 0) steps.push((t - p[0]) / df);
+    for (const { rows: st, count } of chunks)
+      for (let i = 0; i < count && steps.length < 20000; i++) {
+        const tr = st.track[i], f = st.key[i], t = st.t[i];
+        const p = lastT.get(tr);
+        if (p) {
+          const df = has.frame ? f - p[1] : 1;
+          if (t > p[0] && df > 0) steps.push((t - p[0]) / df);
+        }
+        lastT.set(tr, [t, f]);
       }
-      lastT.set(tr, [t, f]);
-    }
     const med = quantileSorted(Float64Array.from(steps).sort(), 0.5);
     return { fps: med > 0 ? Number((1 / med).toPrecision(6)) : NaN, steps: steps.length };
   }
 
   /** Starts the pipeline once the frame rate is known; with `final`, estimates it from whatever is stored. */
-  function startPipeline(st: RowColumns, final: boolean): boolean {
+  function startPipeline(st: { rows: RowColumns; count: number }[], final: boolean): boolean {
     if (s.fps !== null) fps = s.fps;
     else {
       const est = estimateFrameRate(st);
@@ -356,6 +363,12 @@ export function createIngest(options: IngestOptions = {}): Ingest {
     stats = new FrameStatistics(s, dims, fps, issues, parser.trackNames, options.createAutocorrelation);
     const st2 = stats;
     pipeline = new FramePipeline(s, dims, fps, has.vx && has.vy && (dims === 2 || has.vz), has.ax && has.ay && (dims === 2 || has.az), issues, parser.trackNames, (f) => st2.add(f));
+    return true;
+  }
+
+  /** Feeds the stored rows in file order; false if one is out of frame order. */
+  function feedStore(chunks: { rows: RowColumns; count: number }[]): boolean {
+    for (const c of chunks) if (!feed(c.rows, null, 0, c.count)) return false;
     return true;
   }
 
@@ -387,20 +400,24 @@ export function createIngest(options: IngestOptions = {}): Ingest {
 
   /** End of input with rows still stored: start (sorted) or reorder and replay them. */
   function drainStore(): void {
-    const st = store!;
+    const chunks = store!;
     store = null;
     if (pipeline) return;
-    startPipeline(st, true);
+    startPipeline(chunks, true);
     if (failed) return;
-    let order: Uint32Array | null = null;
-    if (!storeSorted) {
-      order = new Uint32Array(st.count);
-      for (let i = 0; i < st.count; i++) order[i] = i;
-      const key = st.key;
-      const tr = st.track;
-      // Stable sort by (frame, track, file order).
-      order.sort((a, b) => key[a] - key[b] || tr[a] - tr[b] || a - b);
+    if (storeSorted) {
+      if (!feedStore(chunks)) failed = true;
+      return;
     }
+    // Reordered in one piece: the chunks are joined (a file of at most maxReorderRows rows in another order).
+    const st = new RowStore(storeCount);
+    for (const c of chunks) st.appendFirst(c.rows, c.count, presentColumns(), dims);
+    const order = new Uint32Array(st.count);
+    for (let i = 0; i < st.count; i++) order[i] = i;
+    const key = st.key;
+    const tr = st.track;
+    // Stable sort by (frame, track, file order).
+    order.sort((a, b) => key[a] - key[b] || tr[a] - tr[b] || a - b);
     if (!feed(st, order, 0, st.count)) failed = true;
   }
 
