@@ -8,6 +8,7 @@ import { nearestNeighbourDistances, pairsWithinDistance, type FrameView } from '
 import { DEFAULT_SETTINGS } from '../../shared/engine/settings';
 import { generateBenchFile, gzipFile } from './generate';
 import { catalogueSearchBench, printCatalogueSearch } from './catalogue-search';
+import { loadBench, printLoad } from './load';
 
 const { values } = parseArgs({ options: { rows: { type: 'string', default: '6000000' }, dir: { type: 'string', default: '.data/bench' }, only: { type: 'string' } } });
 const rows = Number(values.rows);
@@ -61,6 +62,9 @@ function neighbourBench(n: number, frames: number) {
 async function main() {
   // `--only search`: the catalogue search benchmark alone (10,000 seeded releases, 200 queries over HTTP).
   if (values.only === 'search') return printCatalogueSearch(await catalogueSearchBench({ releases: 10_000, queries: 200 }));
+  // `--only load`: autocannon on landing pages, search and file URLs at 200 req/s for 30 s (10,000 releases), on the
+  // embedded default and, with COHESIA_BENCH_DATABASE_URL (an admin URL), on a PostgreSQL server too.
+  if (values.only === 'load') return loadLines();
   process.stderr.write(`Preparing ${csv} (${rows.toLocaleString('en-US')} rows, cached)…\n`);
   await generateBenchFile(csv, rows);
   await gzipFile(csv, gz);
@@ -108,6 +112,14 @@ async function main() {
   console.log('\nCross-check (polarization, mean speed):');
   for (const l of lines) if (l.check) console.log(`  ${l.name.padEnd(24)} ${JSON.stringify(l.check)}`);
   printCatalogueSearch(await catalogueSearchBench({ releases: 10_000, queries: 200 }));
+  await loadLines();
+}
+
+async function loadLines() {
+  printLoad(await loadBench({ releases: 10_000, seconds: 30, rate: 200 }));
+  const adminUrl = process.env.COHESIA_BENCH_DATABASE_URL;
+  if (adminUrl) printLoad(await loadBench({ releases: 10_000, seconds: 30, rate: 200, adminUrl }));
+  else console.log('  (set COHESIA_BENCH_DATABASE_URL to an admin URL of a PostgreSQL server to measure it too)');
 }
 
 main().catch((e) => {

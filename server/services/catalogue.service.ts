@@ -1,3 +1,4 @@
+import { LRUCache } from 'lru-cache';
 import { z } from 'zod';
 import { AppError } from '../errors';
 import type { CatalogueRepository, FacetRow, SearchRow } from '../repositories/catalogue.repository';
@@ -106,25 +107,41 @@ function facetLists(rows: FacetRow[], selected: SearchQuery): SearchResult['face
 
 /** The catalogue: one card per dataset (its newest non-withdrawn release), full-text search and drill-down facets. */
 export function createCatalogueService({ repo }: Deps) {
+  // Answers are kept per query while the catalogue's fingerprint (publications, withdrawals) is unchanged:
+  // many visitors run the same searches, and the facet counts cost tens of milliseconds on 10,000 releases.
+  // Each instance checks the shared database, so a new release shows at once everywhere; download counts
+  // and the "most downloaded" order may lag by up to a minute (the entries' lifetime).
+  const answers = new LRUCache<string, { generation: string; result: SearchResult }>({ max: 2000, ttl: 60_000 });
+
+  async function compute(query: SearchQuery): Promise<SearchResult> {
+    const sort: SearchSort = query.sort ?? (query.q ? 'relevance' : 'newest');
+    if (sort === 'relevance' && !query.q) throw new AppError('relevance_needs_query', 'Sorting by relevance needs search words; sort by newest instead.', 400);
+    const after = query.cursor ? decodeCursor(query.cursor, sort) : undefined;
+    const [page, facetRows] = await Promise.all([
+      repo.page({ q: query.q, filters: query, sort, after, limit: query.limit + 1 }),
+      repo.facets({ q: query.q, filters: query }),
+    ]);
+    const more = page.rows.length > query.limit;
+    const rows = page.rows.slice(0, query.limit);
+    const last = rows.at(-1);
+    return {
+      items: rows.map(toItem),
+      facets: facetLists(facetRows, query),
+      total: page.total,
+      sort,
+      nextCursor: more && last ? encodeCursor(sort, last.sort_key, last.release_id) : null,
+    };
+  }
+
   return {
     async search(query: SearchQuery): Promise<SearchResult> {
-      const sort: SearchSort = query.sort ?? (query.q ? 'relevance' : 'newest');
-      if (sort === 'relevance' && !query.q) throw new AppError('relevance_needs_query', 'Sorting by relevance needs search words; sort by newest instead.', 400);
-      const after = query.cursor ? decodeCursor(query.cursor, sort) : undefined;
-      const [page, facetRows] = await Promise.all([
-        repo.page({ q: query.q, filters: query, sort, after, limit: query.limit + 1 }),
-        repo.facets({ q: query.q, filters: query }),
-      ]);
-      const more = page.rows.length > query.limit;
-      const rows = page.rows.slice(0, query.limit);
-      const last = rows.at(-1);
-      return {
-        items: rows.map(toItem),
-        facets: facetLists(facetRows, query),
-        total: page.total,
-        sort,
-        nextCursor: more && last ? encodeCursor(sort, last.sort_key, last.release_id) : null,
-      };
+      const key = JSON.stringify(query);
+      const generation = await repo.generation();
+      const kept = answers.get(key);
+      if (kept && kept.generation === generation) return kept.result;
+      const result = await compute(query);
+      answers.set(key, { generation, result });
+      return result;
     },
   };
 }

@@ -1,3 +1,4 @@
+import { LRUCache } from 'lru-cache';
 import spdxLicences from 'spdx-license-list';
 import { AppError, notFound } from '../errors';
 import type { DepositingRepository, ReleaseRow } from '../repositories/depositing.repository';
@@ -22,6 +23,15 @@ export type CitationFormat = 'bibtex' | 'ris' | 'csl-json' | 'cff';
 
 /** Public landing pages of releases, their citations, and identifier resolution. */
 export function createReleasesService({ repo, labs, doiPrefix, publicBaseUrl }: Deps) {
+  // A release's files (with their result documents, the heaviest part of a landing page) can never change:
+  // a database trigger refuses it. So they are read once per release and kept (bounded, least recent go first).
+  const filesOf = new LRUCache<string, Awaited<ReturnType<typeof repo.releaseFiles>>>({ max: 1000 });
+  async function releaseFiles(releaseId: string) {
+    let files = filesOf.get(releaseId);
+    if (!files) filesOf.set(releaseId, (files = await repo.releaseFiles(releaseId)));
+    return files;
+  }
+
   async function load(suffix: string) {
     const rel = await repo.findReleaseBySuffix(suffix);
     if (!rel) throw notFound('The release');
@@ -59,7 +69,7 @@ export function createReleasesService({ repo, labs, doiPrefix, publicBaseUrl }: 
       }));
       const c = citable(rel, dataset.suffix);
       const withdrawn = rel.withdrawnAt ? { at: rel.withdrawnAt.toISOString(), reason: rel.withdrawnReason ?? '' } : null;
-      const files = withdrawn ? [] : await repo.releaseFiles(rel.id);
+      const files = withdrawn ? [] : await releaseFiles(rel.id);
       const meta = rel.metadata as Meta;
       const licence = (spdxLicences as Record<string, { name: string; url: string }>)[rel.licence];
       const cites = citations(c);
