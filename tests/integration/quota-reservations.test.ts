@@ -117,9 +117,10 @@ describe('quota service (called by the presign step)', () => {
     await expect(quota.confirm(d.reservationId, { objectKey: 'x', sizeBytes: 1, mediaType: 'text/csv' })).rejects.toMatchObject({ code: 'reservation_released', status: 409 });
     expect(await quota.release(a.reservationId)).toBe(false); // confirmed: stays counted
 
-    const e = await quota.reserve(fenmoorId, 700_000, { ttlMs: 20 });
+    // Long enough that a loaded machine still reads the usage before it expires.
+    const e = await quota.reserve(fenmoorId, 700_000, { ttlMs: 1500 });
     expect((await quota.usage(fenmoorId)).reservedBytes).toBe(700_000);
-    await new Promise((r) => setTimeout(r, 40));
+    await new Promise((r) => setTimeout(r, 1700));
     expect((await quota.usage(fenmoorId)).reservedBytes).toBe(0); // expired space no longer counts
     expect(await quota.expireStale()).toBeGreaterThanOrEqual(1);
     expect((await quota.reservation(e.reservationId))!.status).toBe('released');
