@@ -1,4 +1,4 @@
-import { useId } from 'react';
+import { useId, useState } from 'react';
 import { useLabProfile } from '../api/get-lab-profile';
 import { useSetMemberListing } from '../api/set-member-listing';
 import { FormAlert } from '../../../components/form';
@@ -8,6 +8,8 @@ export function MemberListingToggle({ slug }: { slug: string }) {
   const profile = useLabProfile(slug);
   const set = useSetMemberListing(slug);
   const hintId = useId();
+  // What the member clicked shows at once; the saved value takes over when it arrives.
+  const [clicked, setClicked] = useState<{ value: boolean; over: boolean | null | undefined } | null>(null);
   const listed = profile.data?.myListing;
   if (listed === null || listed === undefined) return null;
   return (
@@ -16,10 +18,12 @@ export function MemberListingToggle({ slug }: { slug: string }) {
         <input
           type="checkbox"
           className="h-4 w-4 accent-dusk"
-          checked={set.isPending ? !!set.variables : listed}
-          disabled={set.isPending}
+          checked={clicked && clicked.over === listed ? clicked.value : listed}
           aria-describedby={hintId}
-          onChange={(e) => set.mutate(e.target.checked)}
+          onChange={(e) => {
+            setClicked({ value: e.target.checked, over: listed });
+            set.mutate(e.target.checked, { onError: () => setClicked(null) });
+          }}
         />
         List me on the lab’s public page
       </label>
