@@ -6,6 +6,7 @@ import type { Db } from '../db/client';
 import { job } from '../db/schema';
 import type { JobContext, JobHandler, JobQueue, JobRow } from './job-queue';
 import { isStorageUnreachable } from '../storage/storage-errors';
+import { databaseUnavailable } from '../middleware/error-handler';
 
 type Options = {
   db: Db;
@@ -18,6 +19,20 @@ type Options = {
 
 type Message = { jobId: string };
 
+// pg-boss 10 records a finished delivery without awaiting it (`complete`/`fail` in its worker loop), so a
+// database connection lost at that moment is an unhandled rejection, which would stop the process. That
+// case is harmless here (the delivery comes back after its timeout and the job row, already done, makes it
+// a no-op), so it is logged; any other unhandled rejection still stops the process as before.
+let guardInstalled = false;
+function guardLostCompletions(log: Logger) {
+  if (guardInstalled) return;
+  guardInstalled = true;
+  process.on('unhandledRejection', (e) => {
+    if (databaseUnavailable(e)) log.warn({ err: e }, 'the job queue lost its database connection while recording a finished job');
+    else throw e;
+  });
+}
+
 const STORAGE_WAIT_RETRIES = 20;
 
 /**
@@ -29,6 +44,7 @@ const STORAGE_WAIT_RETRIES = 20;
  */
 export function createPgBossQueue({ db, url, log, timeoutSeconds, pollSeconds = 0.5 }: Options): JobQueue & { ready(): Promise<void> } {
   const workerId = `${process.pid}-${randomUUID().slice(0, 8)}`;
+  guardLostCompletions(log);
   const boss = new PgBoss({
     connectionString: url,
     max: 4,
