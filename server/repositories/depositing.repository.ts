@@ -1,6 +1,6 @@
 import { and, asc, desc, eq, inArray, max, sql } from 'drizzle-orm';
 import type { Db } from '../db/client';
-import { dataset, downloadEvent, draft, draftComment, draftFile, job, release, releaseFile, user, type DraftState } from '../db/schema';
+import { auditEvent, dataset, downloadEvent, draft, draftComment, draftFile, job, release, releaseFile, user, type DraftState } from '../db/schema';
 
 export type DatasetRow = typeof dataset.$inferSelect;
 export type DraftRow = typeof draft.$inferSelect;
@@ -14,6 +14,11 @@ const OPEN: DraftState[] = ['editing', 'submitted', 'returned'];
 export function createDepositingRepository(db: Db) {
   return {
     transaction: <T>(fn: (tx: Db) => Promise<T>) => db.transaction((tx) => fn(tx as unknown as Db)),
+
+    /** One line of the audit trail (who did what to which release or draft), in the caller's transaction. */
+    async audit(values: Omit<typeof auditEvent.$inferInsert, 'id'>, tx: Db = db) {
+      await tx.insert(auditEvent).values({ id: crypto.randomUUID(), ...values });
+    },
 
     async insertDataset(values: typeof dataset.$inferInsert, tx: Db = db) {
       await tx.insert(dataset).values(values);
@@ -165,8 +170,8 @@ export function createDepositingRepository(db: Db) {
     async releaseFiles(releaseId: string) {
       return db.select().from(releaseFile).where(eq(releaseFile.releaseId, releaseId)).orderBy(asc(releaseFile.fileName));
     },
-    async withdrawRelease(id: string, values: { withdrawnAt: Date; withdrawnReason: string; withdrawnBy: string }) {
-      await db.update(release).set(values).where(eq(release.id, id));
+    async withdrawRelease(id: string, values: { withdrawnAt: Date; withdrawnReason: string; withdrawnBy: string }, tx: Db = db) {
+      await tx.update(release).set(values).where(eq(release.id, id));
     },
     async recordDownload(values: typeof downloadEvent.$inferInsert) {
       await db.insert(downloadEvent).values(values);

@@ -374,6 +374,7 @@ export function createDepositingService(d: Deps) {
         );
         await repo.addComment({ id: randomUUID(), draftId, authorId: actor.id, kind: 'published', body: `Published as version ${v}.` }, tx);
         await repo.touchDataset(dataset.id, { title: meta.title }, tx);
+        await repo.audit({ actorId: actor.id, action: 'release.published', subjectType: 'release', subjectId: releaseId, fromState: 'submitted', toState: 'published', detail: { suffix, doi: doiOf(suffix), version: v, files: files.length } }, tx);
         return v;
       });
       const suffix = releaseSuffix(dataset.suffix, version);

@@ -174,7 +174,10 @@ export function createReleasesService({ repo, labs, doiPrefix, publicBaseUrl }: 
       const { rel, dataset } = await load(suffix);
       if (dataset.labId !== lab.id) throw notFound('The release');
       if (rel.withdrawnAt) throw new AppError('already_withdrawn', 'This release is already withdrawn.', 409);
-      await repo.withdrawRelease(rel.id, { withdrawnAt: new Date(), withdrawnReason: reason, withdrawnBy: actorId });
+      await repo.transaction(async (tx) => {
+        await repo.withdrawRelease(rel.id, { withdrawnAt: new Date(), withdrawnReason: reason, withdrawnBy: actorId }, tx);
+        await repo.audit({ actorId, action: 'release.withdrawn', subjectType: 'release', subjectId: rel.id, fromState: 'published', toState: 'withdrawn', detail: { suffix: rel.suffix, reason } }, tx);
+      });
       return { withdrawn: true };
     },
   };

@@ -51,7 +51,8 @@ describe('the audit log', () => {
   it("shows a lab lead only their own lab's events, derived from each event's subject", async () => {
     const shown = await events(lead, `/api/labs/${FENMOOR}/audit`);
     const actions = shown.map((e) => e.action);
-    expect(actions).toEqual(expect.arrayContaining(['terms.updated', 'access_request.created', 'access_request.approved']));
+    expect(actions).toEqual(expect.arrayContaining(['terms.updated', 'release.published', 'access_request.created', 'access_request.approved']));
+    expect(shown.find((e) => e.action === 'release.published')).toMatchObject({ targetType: 'release', toState: 'published' });
     expect(shown.every((e) => e.lab?.slug === FENMOOR)).toBe(true);
     // Newest first.
     expect([...shown].sort((a, b) => b.at.localeCompare(a.at)).map((e) => e.id)).toEqual(shown.map((e) => e.id));

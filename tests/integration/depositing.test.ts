@@ -244,6 +244,9 @@ describe('release landing pages, citations and identifiers', () => {
     expect(tomb.files).toEqual([]);
     expect(tomb.citation.styles.apa).toContain(pub.doi);
     expect((await lead.post(`/api/labs/${LAB}/releases/${pub.suffix}/withdraw`, { reason: 'Calibration error found in camera 2.' })).status).toBe(409);
+    // Publishing and withdrawing are in the lab's audit trail.
+    const audit = (await lead.get(`/api/labs/${LAB}/audit?targetType=release&targetId=${pub.releaseId}`)).json;
+    expect(audit.events.map((e: { action: string }) => e.action).sort()).toEqual(['release.published', 'release.withdrawn']);
   });
 });
 
