@@ -34,6 +34,22 @@ export type JobQueue = {
   prepare(kinds: string[]): Promise<void>;
 };
 
+/** The context a handler reports through: progress and phase on its row, which also renews the heartbeat. Shared by both queues. */
+export function progressContext(db: Db, rowId: string, workerId: string): JobContext {
+  return {
+    progress: async (fraction, phase) => {
+      await db
+        .update(job)
+        .set({ progress: Math.max(0, Math.min(1, fraction)), phase, heartbeatAt: new Date() })
+        .where(sql`${job.id} = ${rowId} and ${job.lockedBy} = ${workerId}`);
+    },
+  };
+}
+
+export async function markDone(db: Db, rowId: string) {
+  await db.update(job).set({ state: 'done', progress: 1, phase: 'done', lockedBy: null }).where(sql`${job.id} = ${rowId}`);
+}
+
 type Options = {
   db: Db;
   log: Logger;
@@ -76,17 +92,9 @@ export function createJobQueue({ db, log, staleAfterMs = 30_000, pollMs = 250 }:
   }
 
   async function runOne(row: JobRow, handler: JobHandler) {
-    const ctx: JobContext = {
-      progress: async (fraction, phase) => {
-        await db
-          .update(job)
-          .set({ progress: Math.max(0, Math.min(1, fraction)), phase, heartbeatAt: new Date() })
-          .where(sql`${job.id} = ${row.id} and ${job.lockedBy} = ${workerId}`);
-      },
-    };
     try {
-      await handler(row, ctx);
-      await db.update(job).set({ state: 'done', progress: 1, phase: 'done', lockedBy: null }).where(sql`${job.id} = ${row.id}`);
+      await handler(row, progressContext(db, row.id, workerId));
+      await markDone(db, row.id);
     } catch (e) {
       const message = e instanceof Error ? e.message : String(e);
       // The object store being down is not the job's fault: try again every few seconds without using up an attempt.

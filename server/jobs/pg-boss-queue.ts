@@ -4,7 +4,7 @@ import PgBoss from 'pg-boss';
 import type { Logger } from 'pino';
 import type { Db } from '../db/client';
 import { job } from '../db/schema';
-import type { JobContext, JobHandler, JobQueue, JobRow } from './job-queue';
+import { markDone, progressContext, type JobHandler, type JobQueue, type JobRow } from './job-queue';
 import { isStorageUnreachable } from '../storage/storage-errors';
 import { databaseUnavailable } from '../middleware/error-handler';
 
@@ -109,17 +109,9 @@ export function createPgBossQueue({ db, url, log, timeoutSeconds, pollSeconds = 
     const row = await claim(jobId);
     if (!row) return; // already done or failed for good: a repeated delivery does nothing
     const handler = handlers[row.kind];
-    const ctx: JobContext = {
-      progress: async (fraction, phase) => {
-        await db
-          .update(job)
-          .set({ progress: Math.max(0, Math.min(1, fraction)), phase, heartbeatAt: new Date() })
-          .where(sql`${job.id} = ${row.id} and ${job.lockedBy} = ${workerId}`);
-      },
-    };
     try {
-      await handler(row, ctx);
-      await db.update(job).set({ state: 'done', progress: 1, phase: 'done', lockedBy: null }).where(sql`${job.id} = ${row.id}`);
+      await handler(row, progressContext(db, row.id, workerId));
+      await markDone(db, row.id);
     } catch (e) {
       const message = e instanceof Error ? e.message : String(e);
       // The object store being down is not the job's fault: pg-boss delivers again later (its backoff) and no attempt is used up.
