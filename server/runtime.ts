@@ -78,7 +78,13 @@ export async function startCohesia(opts: StartOptions): Promise<Running> {
   const log = opts.log ?? pino({ level: config.logLevel });
   const closers: Array<() => Promise<void>> = [];
   const close = async () => {
-    for (const c of closers.reverse()) await c().catch((e) => log.warn({ err: e }, 'while closing'));
+    // Each part gets a bounded time: a connection the database dropped must not keep the process from stopping.
+    for (const c of closers.reverse()) {
+      let timer: NodeJS.Timeout | undefined;
+      const limit = new Promise<void>((r) => (timer = setTimeout(() => (log.warn('a part did not close within 10 s; going on'), r()), 10_000)));
+      await Promise.race([c().catch((e) => log.warn({ err: e }, 'while closing')), limit]);
+      clearTimeout(timer);
+    }
   };
   try {
     let database: Database;
