@@ -22,7 +22,7 @@ import { checkoutPage, invoicePage, messagePage, money, portalPage } from './pag
  * Test controls (not part of the provider's API), authorised by the same key,
  * under `/_stand-in/`: pause/resume deliveries, deliver given events in a given
  * order (replay, reorder), simulate a renewal that is paid or fails, and list
- * delivery attempts. State persists as JSON under `directory`.
+ * delivery attempts with the number still on their way. State persists as JSON under `directory`.
  */
 
 type Obj = Record<string, any>;
@@ -107,6 +107,8 @@ export async function startPaymentsStandIn(opts: StandInOptions): Promise<Paymen
   const save = () => fs.writeFileSync(stateFile, JSON.stringify(state));
   const timers = new Set<NodeJS.Timeout>();
   const chains = new Map<string, Promise<void>>();
+  /** Deliveries waiting in an account's chain or on the wire, so a test can wait until all have arrived. */
+  const inFlight = new Map<string, number>();
   let baseUrl = '';
   let closed = false;
 
@@ -139,10 +141,11 @@ export async function startPaymentsStandIn(opts: StandInOptions): Promise<Paymen
     // One delivery at a time per account, in the order asked for.
     let result!: Promise<number | 'network-error'>;
     const prev = chains.get(key) ?? Promise.resolve();
+    inFlight.set(key, (inFlight.get(key) ?? 0) + 1);
     const next = prev.then(() => {
       result = deliverOnce(key, event, ep, attempt);
       return result.then(() => {});
-    });
+    }).finally(() => inFlight.set(key, (inFlight.get(key) ?? 1) - 1));
     chains.set(key, next.catch(() => {}));
     return next.then(() => result);
   }
@@ -540,7 +543,7 @@ export async function startPaymentsStandIn(opts: StandInOptions): Promise<Paymen
       'POST', /^\/_stand-in\/subscriptions\/([^/]+)\/renew$/,
       ({ acct, key, m, body }) => renew(acct, key, get(acct.subscriptions, 'subscription', m[1]), body.outcome === 'failed' ? 'failed' : 'paid'),
     ],
-    ['GET', /^\/_stand-in\/deliveries$/, ({ acct }) => ({ deliveries: acct.deliveries, queued: acct.queued })],
+    ['GET', /^\/_stand-in\/deliveries$/, ({ acct, key }) => ({ deliveries: acct.deliveries, queued: acct.queued, inFlight: inFlight.get(key) ?? 0 })],
   ];
 
   // ---- hosted pages ---------------------------------------------------------

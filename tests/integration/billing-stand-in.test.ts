@@ -172,6 +172,8 @@ describe('payment stand-in through the provider SDK', () => {
     const renewal = await control(`/subscriptions/${subId}/renew`, { outcome: 'failed' });
     expect(renewal.subscription.status).toBe('past_due');
     const failed = await waitForEvent('invoice.payment_failed', (o) => o.customer === customer.id);
+    // The renewal emits several events; count from the moment the last of them has arrived.
+    await expect.poll(async () => (await (await fetch(`${base()}/_stand-in/deliveries`, { headers: { authorization: `Bearer ${key}` } })).json()).inFlight, { timeout: 10_000 }).toBe(0);
 
     const before = received.length;
     const events = await stripe.events.list({ limit: 3 });
