@@ -13,6 +13,7 @@ import { createQuotaService } from './services/quota.service';
 import { createHttpRegistrar } from './identifiers/registration';
 import { depositingRoutes } from './routes/depositing.routes';
 import { createReleasesService } from './services/releases.service';
+import { createReleaseReads } from './services/release-reads';
 import { doiResolver, releasesRoutes } from './routes/releases.routes';
 import { BUNDLE_JOB, createDownloadsService } from './services/downloads.service';
 import { createAccessService } from './services/access.service';
@@ -27,6 +28,7 @@ export type DepositingDeps = { config: Config; database: Database; store: Object
 /** Wires datasets, drafts, uploads, ingest and release jobs. */
 export function createDepositingModule({ config, database, store, log, mailer, jobs }: DepositingDeps) {
   const repo = createDepositingRepository(database.db);
+  const reads = createReleaseReads(repo);
   const uploads = createMultipartUploads(store);
   const quota = createQuotaService({
     db: database.db,
@@ -59,6 +61,7 @@ export function createDepositingModule({ config, database, store, log, mailer, j
   const downloads = createDownloadsService({
     grants: accessService,
     repo,
+    reads,
     labs: createLabsRepository(database.db),
     uploads,
     store,
@@ -80,7 +83,7 @@ export function createDepositingModule({ config, database, store, log, mailer, j
     if (row.kind === INGEST_JOB) await ingest.onFinalFailure(row, e);
     else log.error({ jobId: row.id, kind: row.kind, err: e }, 'job gave up');
   };
-  const releases = createReleasesService({ repo, labs: createLabsRepository(database.db), doiPrefix: config.doiPrefix, publicBaseUrl: config.publicBaseUrl });
+  const releases = createReleasesService({ repo, reads, labs: createLabsRepository(database.db), doiPrefix: config.doiPrefix, publicBaseUrl: config.publicBaseUrl });
   return { service, releases, downloads, access: accessService, routes: [...depositingRoutes(service), ...releasesRoutes(releases, downloads), ...accessRoutes(accessService)], doiResolver: doiResolver(releases), handlers, onFinalFailure };
 }
 

@@ -56,6 +56,9 @@ export function createAuthorize({ auth, labs, fakes, tokens }: Deps) {
       if (!found) throw new AppError('bad_token', 'This API token is not valid or was revoked.', 401);
       return { user: found.user as Actor['user'], headers, token: { scopes: found.scopes } };
     }
+    // better-auth keeps sessions only in cookies: a request with none is a visitor, and asking better-auth
+    // would cost it a context of its own for every anonymous page view.
+    if (!req.headers.cookie) return undefined;
     const session = await auth.api.getSession({ headers });
     if (!session) return undefined;
     return { user: session.user as Actor['user'], headers };

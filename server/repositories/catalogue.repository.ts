@@ -1,5 +1,6 @@
 import { sql, type SQL } from 'drizzle-orm';
 import type { Db } from '../db/client';
+import { readCatalogueGeneration } from './catalogue-generation';
 import { FRAME_RATE_BUCKETS, INDIVIDUAL_BUCKETS, type FacetKey, type RangeBucket, type SearchSort } from '../../shared/catalogue/facets';
 import { MARK_END, MARK_START } from '../../shared/catalogue/headline-ranges';
 import type { SearchFilters } from '../../shared/contracts/catalogue';
@@ -96,12 +97,7 @@ export function createCatalogueRepository(db: Db) {
 
   return {
     /** A fingerprint of what a search answer depends on: it changes with every publication and withdrawal (download counts are not in it). */
-    async generation(): Promise<string> {
-      const res = (await db.execute(
-        sql`select count(*)::text || '/' || count(*) filter (where withdrawn)::text || '/' || coalesce(max(published_at)::text, '') || '/' || coalesce(max(version_count), 0)::text as g from release_search`,
-      )) as unknown as { rows: Array<{ g: string }> };
-      return res.rows[0]?.g ?? '';
-    },
+    generation: () => readCatalogueGeneration(db),
 
     /** One page of matching datasets (their newest release), and the total. */
     async page(opts: { q?: string; filters: SearchFilters; sort: SearchSort; after?: SearchKey; limit: number }): Promise<{ rows: SearchRow[]; total: number }> {

@@ -1,5 +1,6 @@
 import { and, asc, desc, eq, inArray, max, sql } from 'drizzle-orm';
 import type { Db } from '../db/client';
+import { readCatalogueGeneration } from './catalogue-generation';
 import { auditEvent, dataset, downloadEvent, draft, draftComment, draftFile, job, release, releaseFile, user, type DraftState } from '../db/schema';
 
 export type DatasetRow = typeof dataset.$inferSelect;
@@ -173,6 +174,7 @@ export function createDepositingRepository(db: Db) {
     async withdrawRelease(id: string, values: { withdrawnAt: Date; withdrawnReason: string; withdrawnBy: string }, tx: Db = db) {
       await tx.update(release).set(values).where(eq(release.id, id));
     },
+    catalogueGeneration: () => readCatalogueGeneration(db),
     async recordDownload(values: typeof downloadEvent.$inferInsert) {
       await db.insert(downloadEvent).values(values);
     },

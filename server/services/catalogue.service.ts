@@ -107,11 +107,17 @@ function facetLists(rows: FacetRow[], selected: SearchQuery): SearchResult['face
 
 /** The catalogue: one card per dataset (its newest non-withdrawn release), full-text search and drill-down facets. */
 export function createCatalogueService({ repo }: Deps) {
-  // Answers are kept per query while the catalogue's fingerprint (publications, withdrawals) is unchanged:
-  // many visitors run the same searches, and the facet counts cost tens of milliseconds on 10,000 releases.
-  // Each instance checks the shared database, so a new release shows at once everywhere; download counts
-  // and the "most downloaded" order may lag by up to a minute (the entries' lifetime).
-  const answers = new LRUCache<string, { generation: string; result: SearchResult }>({ max: 2000, ttl: 60_000 });
+  // Answers are kept per query and catalogue generation (bumped by every publication, withdrawal and lab
+  // rename): many visitors run the same searches, and the facet counts cost tens of milliseconds on 10,000
+  // releases. Each instance reads the generation from the shared database, so a new release shows at once
+  // everywhere. Download counts and the "most downloaded" order are refreshed after a minute: the kept answer
+  // is still served while lru-cache computes the new one in the background, once for all who ask.
+  const answers = new LRUCache<string, SearchResult, SearchQuery>({
+    max: 2000,
+    ttl: 60_000,
+    allowStale: true,
+    fetchMethod: (_key, _stale, { context }) => compute(context),
+  });
 
   async function compute(query: SearchQuery): Promise<SearchResult> {
     const sort: SearchSort = query.sort ?? (query.q ? 'relevance' : 'newest');
@@ -135,13 +141,8 @@ export function createCatalogueService({ repo }: Deps) {
 
   return {
     async search(query: SearchQuery): Promise<SearchResult> {
-      const key = JSON.stringify(query);
       const generation = await repo.generation();
-      const kept = answers.get(key);
-      if (kept && kept.generation === generation) return kept.result;
-      const result = await compute(query);
-      answers.set(key, { generation, result });
-      return result;
+      return (await answers.fetch(`${generation}|${JSON.stringify(query)}`, { context: query }))!;
     },
   };
 }

@@ -6,6 +6,7 @@ import type { DepositingRepository, ReleaseRow } from '../repositories/depositin
 import type { LabsRepository } from '../repositories/labs.repository';
 import type { MultipartUploads } from '../storage/multipart-uploads';
 import type { ObjectStore } from '../storage/object-store';
+import type { ReleaseReads } from './release-reads';
 import type { JobHandler } from '../jobs/job-queue';
 import { buildBagItBundle } from '../releases/bagit-bundle';
 import { releaseReadme } from '../releases/release-readme';
@@ -18,7 +19,7 @@ const URL_SECONDS = 5 * 60;
 
 type Deps = {
   grants: { hasGrant(userId: string, datasetId: string, releaseId: string): Promise<boolean> };
-  repo: DepositingRepository; labs: LabsRepository; uploads: MultipartUploads; store: ObjectStore; doiPrefix: string; publicBaseUrl: string; log: Logger; now?: () => Date };
+  repo: DepositingRepository; reads: ReleaseReads; labs: LabsRepository; uploads: MultipartUploads; store: ObjectStore; doiPrefix: string; publicBaseUrl: string; log: Logger; now?: () => Date };
 
 type Viewer = { userId: string | null; visitorKey?: string };
 
@@ -48,7 +49,7 @@ export function createDownloadsService(d: Deps) {
   }
 
   async function releaseOr404(suffix: string) {
-    const rel = await d.repo.findReleaseBySuffix(suffix);
+    const rel = await d.reads.release(suffix, await d.reads.generation());
     if (!rel) throw notFound('The release');
     return rel;
   }
@@ -67,7 +68,7 @@ export function createDownloadsService(d: Deps) {
       const rel = await releaseOr404(suffix);
       const verdict = await access(rel, viewer);
       if (!verdict.allowed) throw new AppError('no_access', verdict.reason, viewer.userId ? 403 : 401);
-      const file = (await d.repo.releaseFiles(rel.id)).find((f) => f.fileName === fileName);
+      const file = (await d.reads.files(rel.id)).find((f) => f.fileName === fileName);
       if (!file) throw notFound('The file');
       await d.repo.recordDownload({ id: randomUUID(), releaseId: rel.id, fileName, userId: viewer.userId, visitorKey: viewer.visitorKey ?? viewer.userId });
       return d.uploads.signDownload(file.objectKey, file.fileName, URL_SECONDS);

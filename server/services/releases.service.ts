@@ -4,11 +4,12 @@ import { AppError, notFound } from '../errors';
 import type { DepositingRepository, ReleaseRow } from '../repositories/depositing.repository';
 import type { LabsRepository } from '../repositories/labs.repository';
 import type { LabContext } from '../middleware/authorize';
+import type { ReleaseReads } from './release-reads';
 import { citations, datasetJsonLd, type CitableRelease } from '../releases/citation';
 import { formatDoi, parseIdentifier } from '../../shared/identifiers';
 import { paths } from '../../shared/paths';
 
-type Deps = { repo: DepositingRepository; labs: LabsRepository; doiPrefix: string; publicBaseUrl: string };
+type Deps = { repo: DepositingRepository; labs: LabsRepository; reads: ReleaseReads; doiPrefix: string; publicBaseUrl: string };
 
 type Meta = {
   title?: string;
@@ -22,18 +23,22 @@ type Meta = {
 export type CitationFormat = 'bibtex' | 'ris' | 'csl-json' | 'cff';
 
 /** Public landing pages of releases, their citations, and identifier resolution. */
-export function createReleasesService({ repo, labs, doiPrefix, publicBaseUrl }: Deps) {
-  // A release's files (with their result documents, the heaviest part of a landing page) can never change:
-  // a database trigger refuses it. So they are read once per release and kept (bounded, least recent go first).
-  const filesOf = new LRUCache<string, Awaited<ReturnType<typeof repo.releaseFiles>>>({ max: 1000 });
-  async function releaseFiles(releaseId: string) {
-    let files = filesOf.get(releaseId);
-    if (!files) filesOf.set(releaseId, (files = await repo.releaseFiles(releaseId)));
-    return files;
+export function createReleasesService({ repo, labs, reads, doiPrefix, publicBaseUrl }: Deps) {
+  // What a landing page reads besides the release: its dataset, lab and versions. All of it changes only
+  // with a publication, a withdrawal or a lab's new name, which bump the catalogue's generation; so it is
+  // kept per generation and dataset, and a landing page costs one primary-key read.
+  const around = new LRUCache<string, Awaited<ReturnType<typeof readAround>>, string>({
+    max: 2000,
+    fetchMethod: (_key, _stale, { context: datasetId }) => readAround(datasetId),
+  });
+  async function readAround(datasetId: string) {
+    const dataset = (await repo.findDataset(datasetId))!;
+    const [lab, versions] = await Promise.all([labs.findById(dataset.labId), repo.releasesOf(dataset.id)]);
+    return { dataset, lab, versions };
   }
 
   async function load(suffix: string) {
-    const rel = await repo.findReleaseBySuffix(suffix);
+    const rel = await reads.release(suffix, await reads.generation());
     if (!rel) throw notFound('The release');
     const dataset = (await repo.findDataset(rel.datasetId))!;
     return { rel, dataset };
@@ -58,9 +63,11 @@ export function createReleasesService({ repo, labs, doiPrefix, publicBaseUrl }: 
 
   return {
     async landing(suffix: string) {
-      const { rel, dataset } = await load(suffix);
-      const lab = await labs.findById(dataset.labId);
-      const versions = (await repo.releasesOf(dataset.id)).map((r) => ({
+      const generation = await reads.generation();
+      const rel = await reads.release(suffix, generation);
+      if (!rel) throw notFound('The release');
+      const { dataset, lab, versions: all } = (await around.fetch(`${generation}|${rel.datasetId}`, { context: rel.datasetId }))!;
+      const versions = all.map((r) => ({
         version: r.version,
         suffix: r.suffix,
         doi: r.doi,
@@ -69,7 +76,7 @@ export function createReleasesService({ repo, labs, doiPrefix, publicBaseUrl }: 
       }));
       const c = citable(rel, dataset.suffix);
       const withdrawn = rel.withdrawnAt ? { at: rel.withdrawnAt.toISOString(), reason: rel.withdrawnReason ?? '' } : null;
-      const files = withdrawn ? [] : await releaseFiles(rel.id);
+      const files = withdrawn ? [] : await reads.files(rel.id);
       const meta = rel.metadata as Meta;
       const licence = (spdxLicences as Record<string, { name: string; url: string }>)[rel.licence];
       const cites = citations(c);

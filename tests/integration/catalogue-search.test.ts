@@ -189,3 +189,31 @@ describe('catalogue search', () => {
     expect(JSON.stringify(res.json)).toMatch(message);
   });
 });
+
+describe('answers kept in memory', () => {
+  it('shows a lab’s new name at once on landing pages and cards, and a withdrawal at once on the landing page', async () => {
+    const { sql } = await import('drizzle-orm');
+    const landing = () => visitor.get(`/api/releases/${rel.school.suffix}`);
+    const card = async () => (await search(`q=zebrafish&lab=${TIDE}`)).json.items.find((i: { suffix: string }) => i.suffix === rel.school.suffix);
+    const before = (await landing()).json.dataset.lab.name;
+    expect((await card()).lab).toBeTruthy();
+    try {
+      await app.database.db.execute(sql`update organization set slug = 'tidewater-schooling-renamed', name = 'Tidewater Schooling Group' where slug = ${TIDE}`);
+      expect((await landing()).json.dataset.lab).toMatchObject({ name: 'Tidewater Schooling Group', slug: 'tidewater-schooling-renamed' });
+      expect((await search('q=zebrafish&lab=tidewater-schooling-renamed')).json.items.map((i: { suffix: string }) => i.suffix)).toContain(rel.school.suffix);
+    } finally {
+      await app.database.db.execute(sql`update organization set slug = ${TIDE}, name = ${before} where slug = 'tidewater-schooling-renamed'`);
+    }
+    expect((await landing()).json.dataset.lab.slug).toBe(TIDE);
+
+    const gone = await publishRelease(tide.depositor, tide.curator, TIDE, meta({ title: 'Short-lived school', description: 'A synthetic recording withdrawn right after it was read.', groupType: 'school' }));
+    const page = (await visitor.get(`/api/releases/${gone.suffix}`)).json;
+    expect(page.withdrawn).toBeNull();
+    const file = `/api/releases/${gone.suffix}/files/${encodeURIComponent(page.files[0].fileName)}/download`;
+    expect((await visitor.get(file)).status).toBe(302);
+    const lead = await signInDemo(app, 'tomas.okafor-lind@tidewater.example');
+    expect((await lead.post(`/api/labs/${TIDE}/releases/${gone.suffix}/withdraw`, { reason: 'Withdrawn in a test of kept answers.' })).status).toBe(200);
+    expect((await visitor.get(`/api/releases/${gone.suffix}`)).json.withdrawn).toMatchObject({ reason: 'Withdrawn in a test of kept answers.' });
+    expect((await visitor.get(file)).status).toBe(401);
+  });
+});

@@ -150,10 +150,13 @@ describe('embargo with a clock you can set', () => {
     const { createDownloadsService } = await import('../../server/services/downloads.service');
     const { createDepositingRepository } = await import('../../server/repositories/depositing.repository');
     const { createLabsRepository } = await import('../../server/repositories/labs.repository');
+    const { createReleaseReads } = await import('../../server/services/release-reads');
+    const repo = createDepositingRepository(app.database.db);
     const at = (iso: string) =>
       createDownloadsService({
         grants: { hasGrant: async () => false },
-        repo: createDepositingRepository(app.database.db),
+        repo,
+        reads: createReleaseReads(repo),
         labs: createLabsRepository(app.database.db),
         uploads: {} as never,
         store: {} as never,

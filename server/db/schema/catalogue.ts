@@ -50,3 +50,17 @@ export const releaseSearch = pgTable(
     index('release_search_downloads_idx').on(t.listed, t.downloads.desc(), t.releaseId.desc()),
   ],
 );
+
+/**
+ * One row: a number that grows whenever something a catalogue answer or a
+ * landing page shows may have changed (a publication, a withdrawal, a
+ * release's bundle being ready, a lab's name or address). Each instance keeps
+ * its answers while the number stays the same, so a page costs one
+ * primary-key read instead of several joins.
+ * Bumped by database triggers (see the migration), in the same transaction.
+ * Download counts are not in it: they may lag by a cache lifetime.
+ */
+export const catalogueGeneration = pgTable('catalogue_generation', {
+  id: integer().primaryKey().default(1),
+  value: integer().notNull().default(0),
+});
