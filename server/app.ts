@@ -85,7 +85,7 @@ export function buildRoutes({ config, database, auth, store, log, mailer, deposi
     }),
     ...accountRoutes(createProfileService({ users })),
     ...tokensRoutes(createTokensService({ tokens: createTokensRepository(database.db) })),
-    ...labsRoutes(createLabsService({ auth, labs })),
+    ...labsRoutes(createLabsService({ auth, labs, audit: createAuditRepository(database.db) })),
     ...adminRoutes(createAdminService({ users, labs })),
     ...backupRoutes(createBackupService({ config, database, store, log })),
     ...auditRoutes(createAuditService({ audit: createAuditRepository(database.db) })),

@@ -46,6 +46,10 @@ export function createAuditRepository(db: Db) {
   }
 
   return {
+    /** Records one event (a lab's events carry `detail.labId` when their subject has no lab link of its own). */
+    async record(values: Omit<typeof auditEvent.$inferInsert, 'id'>) {
+      await db.insert(auditEvent).values({ id: crypto.randomUUID(), ...values });
+    },
     /** Newest first; `after` continues below the last row of the previous page. */
     async list(f: AuditFilter, limit: number, after?: AuditCursor) {
       const where = conditions(f);

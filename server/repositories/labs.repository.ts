@@ -87,8 +87,9 @@ export function createLabsRepository(db: Db) {
 
     async findMember(labId: string, memberId: string) {
       const [row] = await db
-        .select({ id: member.id, userId: member.userId, role: member.role })
+        .select({ id: member.id, userId: member.userId, role: member.role, email: user.email })
         .from(member)
+        .innerJoin(user, eq(user.id, member.userId))
         .where(and(eq(member.organizationId, labId), eq(member.id, memberId)));
       return row ? { ...row, role: asRole(row.role) } : undefined;
     },

@@ -1,6 +1,7 @@
 import type { Auth } from '../auth/create-auth';
 import { AppError, notFound } from '../errors';
 import type { LabsRepository } from '../repositories/labs.repository';
+import type { AuditRepository } from '../repositories/audit.repository';
 import type { LabContext } from '../middleware/authorize';
 import { labRoleCan, type LabRole } from '../../shared/lab-roles';
 import type { CreateLab, InviteMemberInput, LabDetail, LabSummary, InvitationView } from '../../shared/contracts';
@@ -9,8 +10,16 @@ type Caller = { userId: string; email: string; headers: Headers };
 
 const iso = (d: Date) => d.toISOString();
 
-/** Labs, members and invitations. Membership writes go through better-auth's organisation API. */
-export function createLabsService({ auth, labs }: { auth: Auth; labs: LabsRepository }) {
+type Audit = Pick<AuditRepository, 'record'>;
+
+/**
+ * Labs, members and invitations. Membership writes go through better-auth's organisation API;
+ * each is then recorded in the lab's audit log (after better-auth has written it, so not in
+ * the same transaction: a crash in between leaves the change without its event, never the reverse).
+ */
+export function createLabsService({ auth, labs, audit }: { auth: Auth; labs: LabsRepository; audit: Audit }) {
+  const record = (actorId: string, labId: string, action: string, subject: { type: string; id: string }, detail: Record<string, unknown>, change?: { from: string | null; to: string | null }) =>
+    audit.record({ actorId, action, subjectType: subject.type, subjectId: subject.id, fromState: change?.from ?? null, toState: change?.to ?? null, detail: { labId, ...detail } });
   return {
     async myLabs(userId: string): Promise<LabSummary[]> {
       const rows = await labs.labsOfUser(userId);
@@ -34,6 +43,7 @@ export function createLabsService({ auth, labs }: { auth: Auth; labs: LabsReposi
       });
       if (!created) throw new AppError('lab_not_created', 'The lab could not be created.', 500);
       const lab = (await labs.findById(created.id))!;
+      await record(caller.userId, lab.id, 'lab.created', { type: 'lab', id: lab.id }, { name: lab.name, slug: lab.slug });
       return { ...lab, memberCount: 1, myRole: 'lead' };
     },
 
@@ -61,6 +71,7 @@ export function createLabsService({ auth, labs }: { auth: Auth; labs: LabsReposi
         headers: caller.headers,
         body: { email: input.email, role: input.role, organizationId: lab.id, resend: true },
       });
+      await record(caller.userId, lab.id, 'invitation.sent', { type: 'invitation', id: inv.id }, { member: input.email, role: input.role }, { from: null, to: 'pending' });
       return { id: inv.id, email: inv.email, role: input.role, status: inv.status, expiresAt: iso(new Date(inv.expiresAt)) };
     },
 
@@ -68,6 +79,7 @@ export function createLabsService({ auth, labs }: { auth: Auth; labs: LabsReposi
       const inv = await labs.findInvitation(invitationId);
       if (!inv || inv.labId !== lab.id) throw notFound('The invitation');
       await auth.api.cancelInvitation({ headers: caller.headers, body: { invitationId } });
+      await record(caller.userId, lab.id, 'invitation.cancelled', { type: 'invitation', id: invitationId }, { member: inv.email, role: inv.role }, { from: inv.status, to: 'canceled' });
     },
 
     async changeRole(caller: Caller, lab: LabContext, memberId: string, role: LabRole) {
@@ -80,6 +92,7 @@ export function createLabsService({ auth, labs }: { auth: Auth; labs: LabsReposi
         }
       }
       await auth.api.updateMemberRole({ headers: caller.headers, body: { memberId, role, organizationId: lab.id } });
+      if (target.role !== role) await record(caller.userId, lab.id, 'member.role_changed', { type: 'member', id: memberId }, { member: target.email }, { from: target.role, to: role });
       return { id: memberId, role };
     },
 
@@ -106,6 +119,8 @@ export function createLabsService({ auth, labs }: { auth: Auth; labs: LabsReposi
       if (view.status !== 'pending') throw new AppError('invitation_closed', `This invitation was already ${view.status}.`, 409);
       if (answer === 'accept') await auth.api.acceptInvitation({ headers: caller.headers, body: { invitationId: id } });
       else await auth.api.rejectInvitation({ headers: caller.headers, body: { invitationId: id } });
+      const labId = (await labs.findInvitation(id))!.labId;
+      await record(caller.userId, labId, `invitation.${answer === 'accept' ? 'accepted' : 'declined'}`, { type: 'invitation', id }, { member: view.email, role: view.role }, { from: 'pending', to: answer === 'accept' ? 'accepted' : 'rejected' });
       return { labSlug: view.labSlug, status: answer === 'accept' ? 'accepted' : 'rejected' };
     },
   };

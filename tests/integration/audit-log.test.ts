@@ -136,3 +136,25 @@ describe('the audit log', () => {
     expect(everything.text).toContain(TIDEWATER);
   });
 });
+
+describe('membership changes in the audit log', () => {
+  it('records invitations sent, cancelled and accepted, and role changes with who was changed', async () => {
+    const sent = await lead.post(`/api/labs/${FENMOOR}/invitations`, { email: 'jun.haverly@tidewater.example', role: 'depositor' });
+    expect(sent.status).toBe(201);
+    const cancelled = await lead.post(`/api/labs/${FENMOOR}/invitations`, { email: 'nobody.yet@fenmoor.example', role: 'curator' });
+    expect((await lead.delete(`/api/labs/${FENMOOR}/invitations/${cancelled.json.id}`)).status).toBe(204);
+    const invitee = await signInDemo(app, 'jun.haverly@tidewater.example');
+    expect((await invitee.post(`/api/invitations/${sent.json.id}/accept`)).status).toBe(200);
+    const joined = (await lead.get(`/api/labs/${FENMOOR}`)).json.members.find((m: { email: string }) => m.email === 'jun.haverly@tidewater.example');
+    expect((await lead.patch(`/api/labs/${FENMOOR}/members/${joined.id}`, { role: 'curator' })).status).toBe(200);
+
+    const shown = await events(lead, `/api/labs/${FENMOOR}/audit`);
+    const of = (action: string) => shown.filter((e) => e.action === action);
+    expect(of('invitation.sent').map((e) => e.detail?.member)).toEqual(expect.arrayContaining(['jun.haverly@tidewater.example', 'nobody.yet@fenmoor.example']));
+    expect(of('invitation.cancelled')[0]).toMatchObject({ targetType: 'invitation', targetId: cancelled.json.id, fromState: 'pending', detail: { member: 'nobody.yet@fenmoor.example' } });
+    expect(of('invitation.accepted')[0]).toMatchObject({ targetId: sent.json.id, toState: 'accepted', actor: { email: 'jun.haverly@tidewater.example' } });
+    expect(of('member.role_changed')[0]).toMatchObject({ targetType: 'member', targetId: joined.id, fromState: 'depositor', toState: 'curator', actor: { email: 'ilse.marten@fenmoor.example' }, detail: { member: 'jun.haverly@tidewater.example' } });
+    // Another lab's lead sees none of it.
+    expect((await events(otherLead, `/api/labs/${TIDEWATER}/audit`)).some((e) => e.action.startsWith('invitation.') || e.action.startsWith('member.'))).toBe(false);
+  });
+});

@@ -10,6 +10,8 @@ import { emptyAuditFilters, type AuditFilters } from '../api/audit-filters';
 const TARGET_TYPES = [
   ['', 'Any target'],
   ['lab', 'Lab'],
+  ['member', 'Member'],
+  ['invitation', 'Invitation'],
   ['access_request', 'Access request'],
   ['release', 'Release'],
   ['dataset', 'Dataset'],
@@ -120,6 +122,7 @@ function EventRow({ event: e, showLab }: { event: AuditEventView; showLab: boole
       {showLab ? <td className="py-2 pr-4">{e.lab?.name ?? '—'}</td> : null}
       <td className="py-2 pr-4">
         {actionLabel(e.targetType)} <code className="break-all text-xs text-ink/70">{e.targetId}</code>
+        {typeof e.detail?.member === 'string' ? <span className="block text-ink/80">{e.detail.member}</span> : null}
       </td>
       <td className="py-2 pr-4">{e.fromState || e.toState ? `${e.fromState ?? '—'} → ${e.toState ?? '—'}` : '—'}</td>
     </tr>
