@@ -47,9 +47,11 @@ describe('multipart uploads through presigned URLs (real s3rver over HTTP)', () 
     const [{ url }] = await uploads.signParts(key, uploadId, [1]);
     const put = await fetch(url, { method: 'PUT', body: Buffer.from('short-lived') });
     await uploads.complete(key, uploadId, [{ partNumber: 1, etag: put.headers.get('etag')! }]);
-    const link = await uploads.signDownload(key, 'expiring.txt', 1);
+    // The signing time is written in whole seconds (rounded down), so a link lives between
+    // expiry − 1 and expiry seconds: 5 s leaves a slow machine time for the first fetch.
+    const link = await uploads.signDownload(key, 'expiring.txt', 5);
     expect((await fetch(link)).status).toBe(200);
-    await new Promise((r) => setTimeout(r, 2100));
+    await new Promise((r) => setTimeout(r, 6100));
     expect((await fetch(link)).status).toBe(403);
   });
 });
