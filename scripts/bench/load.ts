@@ -145,6 +145,9 @@ export async function loadBench(opts: { releases: number; seconds: number; rate:
       process.stderr.write(`  load ${label} (${engine}): ${line.requestsPerSecond.toFixed(0)} req/s, p99 ${line.p99} ms\n`);
       return line;
     };
+    // COHESIA_BENCH_ONLY=landing|search|file runs one kind alone for the whole time (for profiling it).
+    const only = process.env.COHESIA_BENCH_ONLY;
+    if (only) return [await run(only, { landing, search: searches, file: files }[only] ?? mixed, opts.seconds)];
     const results = [await run('mixed', mixed, opts.seconds)];
     const part = Math.max(5, Math.round(opts.seconds / 3));
     results.push(await run('landing pages', landing, part), await run('search', searches, part), await run('file URLs', files, part));

@@ -1,4 +1,5 @@
 import { randomUUID } from 'node:crypto';
+import { LRUCache } from 'lru-cache';
 import spdxLicences from 'spdx-license-list';
 import type { Logger } from 'pino';
 import { AppError, notFound } from '../errors';
@@ -16,6 +17,7 @@ import { paths } from '../../shared/paths';
 
 export const BUNDLE_JOB = 'build-bundle';
 const URL_SECONDS = 5 * 60;
+const SIGNED_URL_REUSE_MS = 60_000;
 
 type Deps = {
   grants: { hasGrant(userId: string, datasetId: string, releaseId: string): Promise<boolean> };
@@ -31,6 +33,16 @@ type Viewer = { userId: string | null; visitorKey?: string };
  */
 export function createDownloadsService(d: Deps) {
   const now = d.now ?? (() => new Date());
+  // Signing a URL costs more than the rest of a download request (the SDK's middleware stack and HMACs),
+  // and a presigned URL only says "this object, until then". So one URL per object and file name is
+  // handed to everyone who passes the access check during a minute: each link still lives at least
+  // URL_SECONDS − 60 s (4 minutes) when it is handed out.
+  const signed = new LRUCache<string, string, { objectKey: string; fileName: string }>({
+    max: 5000,
+    ttl: SIGNED_URL_REUSE_MS,
+    fetchMethod: (_key, _stale, { context }) => d.uploads.signDownload(context.objectKey, context.fileName, URL_SECONDS),
+  });
+  const signDownload = async (objectKey: string, fileName: string) => (await signed.fetch(`${objectKey}\n${fileName}`, { context: { objectKey, fileName } }))!;
 
   async function access(rel: ReleaseRow, viewer: Viewer): Promise<{ allowed: boolean; reason: string }> {
     if (rel.withdrawnAt) return { allowed: false, reason: 'This release was withdrawn; its files are no longer available.' };
@@ -71,7 +83,7 @@ export function createDownloadsService(d: Deps) {
       const file = (await d.reads.files(rel.id)).find((f) => f.fileName === fileName);
       if (!file) throw notFound('The file');
       await d.repo.recordDownload({ id: randomUUID(), releaseId: rel.id, fileName, userId: viewer.userId, visitorKey: viewer.visitorKey ?? viewer.userId });
-      return d.uploads.signDownload(file.objectKey, file.fileName, URL_SECONDS);
+      return signDownload(file.objectKey, file.fileName);
     },
 
     async bundleUrl(suffix: string, viewer: Viewer) {
@@ -80,7 +92,7 @@ export function createDownloadsService(d: Deps) {
       if (!verdict.allowed) throw new AppError('no_access', verdict.reason, viewer.userId ? 403 : 401);
       if (!rel.bundleKey) throw new AppError('bundle_pending', 'The bundle of this release is still being put together; try again in a minute.', 409);
       await d.repo.recordDownload({ id: randomUUID(), releaseId: rel.id, fileName: null, userId: viewer.userId, visitorKey: viewer.visitorKey ?? viewer.userId });
-      return d.uploads.signDownload(rel.bundleKey, `${rel.suffix}.zip`, URL_SECONDS);
+      return signDownload(rel.bundleKey, `${rel.suffix}.zip`);
     },
 
     /** The bundle job: builds the BagIt ZIP once; a retry after a crash starts it again from scratch. */

@@ -97,9 +97,15 @@ describe('release bundles in BagIt layout (RFC 8493)', () => {
     expect(one.headers.get('content-disposition')).toContain('filename="swarm.csv.gz"');
     expect(one.body!.equals(traj)).toBe(true);
     // COUNTER Release 5: a repeat within 30 s is one request; unique = per visitor, item and day.
-    await visitor.get(`/api/releases/${rel.suffix}/files/swarm.csv.gz/download`);
-    await depositor.get(`/api/releases/${rel.suffix}/files/swarm.csv.gz/download`);
+    const again = await visitor.get(`/api/releases/${rel.suffix}/files/swarm.csv.gz/download`);
+    const member = await depositor.get(`/api/releases/${rel.suffix}/files/swarm.csv.gz/download`);
     expect((await visitor.get(`/api/releases/${rel.suffix}/access`)).json.downloads).toEqual({ total: 3, unique: 3 });
+    // Each request is checked and counted, but the signed link is shared for a minute: it still has at least 4 of its 5 minutes.
+    const link = new URL(member.headers.get('location')!);
+    expect(again.headers.get('location')).toBe(link.toString());
+    expect(link.searchParams.get('X-Amz-Expires')).toBe('300');
+    const signedAt = Date.parse(link.searchParams.get('X-Amz-Date')!.replace(/^(\d{4})(\d\d)(\d\d)T(\d\d)(\d\d)(\d\d)Z$/, '$1-$2-$3T$4:$5:$6Z'));
+    expect(Date.now() - signedAt).toBeLessThan(61_000);
     expect((await visitor.get(`/api/releases/${rel.suffix}/files/nope.csv/download`)).status).toBe(404);
     // The lab's dashboard counts them per month.
     const months = (await depositor.get(`/api/labs/${LAB}/downloads`)).json;
