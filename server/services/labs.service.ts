@@ -97,32 +97,35 @@ export function createLabsService({ auth, labs, audit }: { auth: Auth; labs: Lab
     },
 
     async invitation(caller: Caller, id: string): Promise<InvitationView> {
-      const inv = await labs.findInvitation(id);
-      // Only the invited address may see it; others get the same answer as a missing one.
-      if (!inv || inv.email.toLowerCase() !== caller.email.toLowerCase()) throw notFound('The invitation');
-      const expired = inv.status === 'pending' && inv.expiresAt.getTime() < Date.now();
-      return {
-        id: inv.id,
-        labName: inv.labName,
-        labSlug: inv.labSlug,
-        role: inv.role,
-        email: inv.email,
-        status: expired ? 'expired' : inv.status,
-        expiresAt: iso(inv.expiresAt),
-        inviterName: inv.inviterName,
-      };
+      return invitationView(caller, await labs.findInvitation(id));
     },
 
     async respond(caller: Caller, id: string, answer: 'accept' | 'reject') {
-      const view = await this.invitation(caller, id);
+      const inv = await labs.findInvitation(id);
+      const view = invitationView(caller, inv);
       if (view.status === 'expired') throw new AppError('invitation_expired', 'This invitation has expired. Ask the lab lead to invite you again.', 410);
       if (view.status !== 'pending') throw new AppError('invitation_closed', `This invitation was already ${view.status}.`, 409);
       if (answer === 'accept') await auth.api.acceptInvitation({ headers: caller.headers, body: { invitationId: id } });
       else await auth.api.rejectInvitation({ headers: caller.headers, body: { invitationId: id } });
-      const labId = (await labs.findInvitation(id))!.labId;
-      await record(caller.userId, labId, `invitation.${answer === 'accept' ? 'accepted' : 'declined'}`, { type: 'invitation', id }, { member: view.email, role: view.role }, { from: 'pending', to: answer === 'accept' ? 'accepted' : 'rejected' });
+      await record(caller.userId, inv!.labId, `invitation.${answer === 'accept' ? 'accepted' : 'declined'}`, { type: 'invitation', id }, { member: view.email, role: view.role }, { from: 'pending', to: answer === 'accept' ? 'accepted' : 'rejected' });
       return { labSlug: view.labSlug, status: answer === 'accept' ? 'accepted' : 'rejected' };
     },
+  };
+}
+
+/** What the invited address may see of an invitation; anyone else gets the same answer as for a missing one. */
+function invitationView(caller: Caller, inv: Awaited<ReturnType<LabsRepository['findInvitation']>>): InvitationView {
+  if (!inv || inv.email.toLowerCase() !== caller.email.toLowerCase()) throw notFound('The invitation');
+  const expired = inv.status === 'pending' && inv.expiresAt.getTime() < Date.now();
+  return {
+    id: inv.id,
+    labName: inv.labName,
+    labSlug: inv.labSlug,
+    role: inv.role,
+    email: inv.email,
+    status: expired ? 'expired' : inv.status,
+    expiresAt: iso(inv.expiresAt),
+    inviterName: inv.inviterName,
   };
 }
 

@@ -37,11 +37,12 @@ export function createReleasesService({ repo, labs, reads, doiPrefix, publicBase
     return { dataset, lab, versions };
   }
 
+  /** The release with its dataset, lab and versions, as of the current generation. */
   async function load(suffix: string) {
-    const rel = await reads.release(suffix, await reads.generation());
+    const generation = await reads.generation();
+    const rel = await reads.release(suffix, generation);
     if (!rel) throw notFound('The release');
-    const dataset = (await repo.findDataset(rel.datasetId))!;
-    return { rel, dataset };
+    return { rel, ...(await around.fetch(`${generation}|${rel.datasetId}`, { context: rel.datasetId }))! };
   }
 
   function citable(rel: ReleaseRow, conceptSuffix: string): CitableRelease {
@@ -63,10 +64,7 @@ export function createReleasesService({ repo, labs, reads, doiPrefix, publicBase
 
   return {
     async landing(suffix: string) {
-      const generation = await reads.generation();
-      const rel = await reads.release(suffix, generation);
-      if (!rel) throw notFound('The release');
-      const { dataset, lab, versions: all } = (await around.fetch(`${generation}|${rel.datasetId}`, { context: rel.datasetId }))!;
+      const { rel, dataset, lab, versions: all } = await load(suffix);
       const versions = all.map((r) => ({
         version: r.version,
         suffix: r.suffix,
