@@ -25,51 +25,101 @@ export interface AutocorrelationAccumulator {
  * Method: SCIENCE.md; time origins are every `originStride`-th frame
  * (frame % originStride === 0) to bound the cost at maxLag/originStride
  * products per sample — an unbiased subsample of origins [common practice,
- * "Computer simulation of liquids", Allen & Tildesley 1987]. Memory: one ring
- * buffer of maxLag/originStride + 1 origin velocities per active track.
- * Units: dimensionless; lag in frames. Self-contained (nothing outside its
+ * "Computer simulation of liquids", Allen & Tildesley 1987].
+ * Layout: each active track keeps its last samples in time order, a window of
+ * B + maxLag frames with B = maxLag + 1 (velocity x, y, z interleaved, and a
+ * 0/1 weight; a missing or non-finite sample is a zero of weight 0). Once the
+ * window is full, the products of its first B frames as origins with every
+ * lag are added, one sequential loop per origin, and the window moves on by B
+ * frames: the hot loop reads contiguous memory with no branch per product
+ * (gaps add zeros), and the pair counts of a window without gaps are counted
+ * per origin, not per product. Same sums as a loop over frames, in another
+ * order. Memory: 4 (2 maxLag + 1) numbers per active track. Units:
+ * dimensionless; lag in frames. Self-contained (nothing outside its
  * arguments and built-ins): a worker runs its source text
  * (server/ingest/parse-offload.ts).
  */
 export function createAutocorrelationAccumulator(maxLag: number, originStride = 1): AutocorrelationAccumulator {
   const M = maxLag + 1;
   const stride = Math.max(1, Math.floor(originStride));
-  // Only origin samples are ever looked back at: a ring of P origins per track. Flat arrays, origin-major
-  // (slot o of ring r at o·cap + r), so one origin's samples of a frame's tracks sit close together.
-  const P = Math.floor(maxLag / stride) + 1;
+  const B = M; // origins completed per window move
+  const C = B + maxLag; // window length (frames)
   const sums = new Float64Array(M);
   const pairs = new Float64Array(M);
+  // Origins of gap-free windows whose longest lag is l (pairs[τ] gets the count of those with l ≥ τ at the end).
+  const reach = new Float64Array(M);
   let cap = 0;
-  let V = new Float64Array(0); // velocity of origin slot o of ring r at 3 (o cap + r)
-  let F = new Float64Array(0); // its frame (NaN: empty)
-  let last = new Float64Array(0); // last frame seen per ring
-  let owner: number[] = []; // track key per ring (NaN: free)
+  let V = new Float64Array(0); // window of ring r at 3 r C (x, y, z per frame)
+  let Wt = new Uint8Array(0); // weights of ring r at r C
+  let base = new Float64Array(0); // frame of window index 0 per ring
+  let len = new Int32Array(0); // window indices in use per ring
+  let valid = new Int32Array(0); // weight-1 samples among them
+  let last = new Float64Array(0); // last frame seen per ring (NaN: free)
+  const owner: number[] = []; // track key per ring
   const free: number[] = [];
   // Ring per track key: dense array for small non-negative integer keys (the engine's track indices), Map otherwise.
   let dense = new Int32Array(0);
   const sparse = new Map<number, number>();
   let active = 0;
-  const slots = new Int32Array(P + 1), lags = new Int32Array(P + 1), origins = new Float64Array(P + 1);
-  let rowRing = new Int32Array(0), ux = new Float64Array(0), uy = new Float64Array(0), uz = new Float64Array(0);
 
+  /** Adds the products of origins at window indices [0, upto) of ring r (lags within the window's data). */
+  const flush = (r: number, upto: number, S: Float64Array, P: Float64Array, R: Float64Array): void => {
+    // Integer hints (| 0): the frame base is a double, and double indices would slow the hot loop down ~2×.
+    const n = len[r] | 0, o = (3 * r * C) | 0, ow = (r * C) | 0;
+    const v = V, w = Wt;
+    const gapFree = valid[r] === n;
+    const phase = (((base[r] % stride) + stride) % stride) | 0;
+    for (let i = phase === 0 ? 0 : stride - phase; i < upto; i += stride) {
+      if (w[ow + i] === 0) continue;
+      const qi = o + 3 * i;
+      const ox = v[qi], oy = v[qi + 1], oz = v[qi + 2];
+      const lmax = Math.min(maxLag, n - 1 - i) | 0;
+      // Hot loop: one origin against every lag, contiguous reads.
+      for (let l = 0, q = qi; l <= lmax; l++, q += 3) S[l] += ox * v[q] + oy * v[q + 1] + oz * v[q + 2];
+      if (gapFree) R[lmax]++;
+      else for (let l = 0, q = ow + i; l <= lmax; l++, q++) P[l] += w[q];
+    }
+  };
+  /** Moves ring r's window on by `by` frames (origins before it must be flushed). */
+  const shift = (r: number, by: number): void => {
+    const n = len[r], o = 3 * r * C, ow = r * C;
+    const keep = Math.max(0, n - by);
+    for (let q = ow, e = ow + Math.min(by, n); q < e; q++) valid[r] -= Wt[q];
+    if (keep > 0) {
+      V.copyWithin(o, o + 3 * by, o + 3 * n);
+      Wt.copyWithin(ow, ow + by, ow + n);
+    }
+    V.fill(0, o + 3 * keep, o + 3 * C);
+    Wt.fill(0, ow + keep, ow + C);
+    len[r] = keep;
+    base[r] += by;
+  };
   const newRing = (key: number, frame: number): number => {
     if (free.length === 0) {
-      const grown = Math.max(64, 2 * cap);
-      const V2 = new Float64Array(3 * grown * P), F2 = new Float64Array(grown * P).fill(NaN);
-      for (let o = 0; o < P; o++) {
-        F2.set(F.subarray(o * cap, (o + 1) * cap), o * grown);
-        V2.set(V.subarray(3 * o * cap, 3 * (o + 1) * cap), 3 * o * grown);
-      }
+      const grown = Math.max(16, 2 * cap);
+      const V2 = new Float64Array(3 * grown * C), W2 = new Uint8Array(grown * C);
+      V2.set(V);
+      W2.set(Wt);
       V = V2;
-      F = F2;
-      const l2 = new Float64Array(grown).fill(NaN);
-      l2.set(last);
-      last = l2;
+      Wt = W2;
+      const b2 = new Float64Array(grown), l2 = new Int32Array(grown), v2 = new Int32Array(grown), t2 = new Float64Array(grown).fill(NaN);
+      b2.set(base);
+      l2.set(len);
+      v2.set(valid);
+      t2.set(last);
+      base = b2;
+      len = l2;
+      valid = v2;
+      last = t2;
       for (let r = grown - 1; r >= cap; r--) free.push(r);
       cap = grown;
     }
     const r = free.pop()!;
-    for (let o = 0; o < P; o++) F[o * cap + r] = NaN;
+    V.fill(0, 3 * r * C, 3 * (r + 1) * C);
+    Wt.fill(0, r * C, (r + 1) * C);
+    base[r] = frame;
+    len[r] = 0;
+    valid[r] = 0;
     last[r] = frame;
     owner[r] = key;
     active++;
@@ -90,60 +140,43 @@ export function createAutocorrelationAccumulator(maxLag: number, originStride = 
     if (r === undefined) sparse.set(key, (r = newRing(key, frame)));
     return r;
   };
+  /** pairs[τ] plus the gap-free origins reaching τ or further. */
+  const pairCounts = (P: Float64Array, R: Float64Array): Float64Array => {
+    const out = P.slice();
+    for (let l = M - 1, run = 0; l >= 0; l--) out[l] += run += R[l];
+    return out;
+  };
   const acc: AutocorrelationAccumulator = {
     add(track, frame, vx, vy, vz) {
       acc.addFrame(frame, [track], [vx], [vy], [vz], 1);
     },
     addFrame(frame, track, vx, vy, vz, count) {
-      const phase = ((frame % stride) + stride) % stride;
-      const origin0 = frame - phase;
-      const slot0 = (((origin0 / stride) % P) + P) % P;
-      if (rowRing.length < count) {
-        rowRing = new Int32Array(2 * count);
-        ux = new Float64Array(2 * count);
-        uy = new Float64Array(2 * count);
-        uz = new Float64Array(2 * count);
-      }
-      let m = 0;
       for (let i = 0; i < count; i++) {
         const a = vx[i], b = vy[i], c = vz[i];
         if (!Number.isFinite(a) || !Number.isFinite(b) || !Number.isFinite(c)) continue;
         const r = ringOf(track[i], frame);
+        let k = frame - base[r];
+        if (k < len[r] || k < 0) continue; // not after the track's last sample: left out
+        while (k >= C) {
+          // Window full: its first B origins have every lag; a gap longer than the window skips ahead.
+          flush(r, Math.min(B, len[r]), sums, pairs, reach);
+          shift(r, len[r] === 0 ? k - maxLag : B);
+          k = frame - base[r];
+        }
+        const q = 3 * (r * C + k);
+        V[q] = a;
+        V[q + 1] = b;
+        V[q + 2] = c;
+        Wt[r * C + k] = 1;
+        valid[r] += 1;
+        len[r] = k + 1;
         last[r] = frame;
-        if (phase === 0) {
-          const q = slot0 * cap + r;
-          V[3 * q] = a;
-          V[3 * q + 1] = b;
-          V[3 * q + 2] = c;
-          F[q] = frame;
-        }
-        rowRing[m] = r;
-        ux[m] = a;
-        uy[m] = b;
-        uz[m] = c;
-        m++;
-      }
-      // Origins in reach of this frame, the same for every row: one pass over the rows per origin (hot loop,
-      // maxLag/stride products per sample; closure arrays copied to locals so the loop keeps them in registers).
-      const Fl = F, Vl = V, rr = rowRing, xs = ux, ys = uy, zs = uz, width = cap;
-      for (let origin = origin0, lag = phase, o = slot0; lag <= maxLag; origin -= stride, lag += stride) {
-        let sum = 0, n = 0;
-        const base = o * width;
-        for (let k = 0; k < m; k++) {
-          const q = base + rr[k];
-          if (Fl[q] !== origin) continue;
-          const q3 = 3 * q;
-          sum += xs[k] * Vl[q3] + ys[k] * Vl[q3 + 1] + zs[k] * Vl[q3 + 2];
-          n++;
-        }
-        sums[lag] += sum;
-        pairs[lag] += n;
-        if (--o < 0) o = P - 1;
       }
     },
     evictBefore(frame) {
       for (let r = 0; r < cap; r++) {
         if (!(last[r] < frame)) continue;
+        flush(r, len[r], sums, pairs, reach);
         const key = owner[r];
         if (key >= 0 && key < dense.length && dense[key] === r) dense[key] = -1;
         else sparse.delete(key);
@@ -153,10 +186,14 @@ export function createAutocorrelationAccumulator(maxLag: number, originStride = 
       }
     },
     result() {
+      // Tracks still open add their pending origins to copies (the accumulator can go on).
+      const S = sums.slice(), P = pairs.slice(), R = reach.slice();
+      for (let r = 0; r < cap; r++) if (last[r] === last[r]) flush(r, len[r], S, P, R);
+      const counts = pairCounts(P, R);
       const rho = new Float64Array(M).fill(NaN);
-      const c0 = pairs[0] > 0 ? sums[0] / pairs[0] : NaN;
-      for (let l = 0; l < M; l++) if (pairs[l] > 0 && c0 > 0) rho[l] = sums[l] / pairs[l] / c0;
-      return { rho, pairs: pairs.slice() };
+      const c0 = counts[0] > 0 ? S[0] / counts[0] : NaN;
+      for (let l = 0; l < M; l++) if (counts[l] > 0 && c0 > 0) rho[l] = S[l] / counts[l] / c0;
+      return { rho, pairs: counts };
     },
     get activeTracks() {
       return active;
