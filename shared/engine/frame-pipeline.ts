@@ -55,6 +55,8 @@ export class FramePipeline {
   private mismatchRef = 0;
   private scratch: { x: Float64Array; y: Float64Array; z: Float64Array; vx: Float64Array; vy: Float64Array; vz: Float64Array; ax: Float64Array; ay: Float64Array; az: Float64Array; track: Int32Array; line: Int32Array };
   private readonly dt: number;
+  /** Frames between the velocity checks (kinematicsCheckInterval × fps, at least 1). */
+  private readonly checkStride: number;
   private framesSinceEvict = 0;
 
   constructor(
@@ -77,6 +79,7 @@ export class FramePipeline {
     this.L = needKernel ? L : 0;
     this.kernels = needKernel ? gaussianDerivativeKernels(s.kernelWidth, L) : null;
     this.dt = 1 / fps;
+    this.checkStride = Math.max(1, Math.round(s.kinematicsCheckInterval * fps));
     this.scratch = this.makeScratch(256);
   }
 
@@ -185,35 +188,47 @@ export class FramePipeline {
     if (ts.run < W) return;
     // Window complete: oldest sample is at slot run % W.
     const k1 = this.kernels!.first, k2 = this.kernels!.second;
-    let vx = 0, vy = 0, vz = 0, ax = 0, ay = 0, az = 0;
     const base = ts.run % W;
-    for (let j = 0, q = 3 * base; j < W; j++, q += 3) {
-      const px = pos[q], py = pos[q + 1], pz = pos[q + 2];
-      const c1 = k1[j], c2 = k2[j];
-      vx += c1 * px;
-      vy += c1 * py;
-      vz += c1 * pz;
-      ax += c2 * px;
-      ay += c2 * py;
-      az += c2 * pz;
-    }
     const inv = 1 / this.dt;
-    const inv2 = inv * inv;
     const centre = ts.seq![(base + L) % W] & (this.cap - 1);
     const r = this.ring;
-    if (this.deriveV) {
-      r[4][centre] = vx * inv;
-      r[5][centre] = vy * inv;
-      r[6][centre] = vz * inv;
-    } else if (this.checkV) {
-      const gx = r[4][centre], gy = r[5][centre], gz = this.dims === 3 ? r[6][centre] : 0;
-      const d2 = (gx - vx * inv) ** 2 + (gy - vy * inv) ** 2 + (gz - vz * inv) ** 2;
-      if (d2 === d2) {
-        this.mismatch += d2;
-        this.mismatchRef += (vx * inv) ** 2 + (vy * inv) ** 2 + (vz * inv) ** 2;
+    // Given velocities are compared on every checkStride-th frame only (setting kinematicsCheckInterval); floor,
+    // not %, since % of a double is a slow library call.
+    const cf = r[0][centre], cs = this.checkStride;
+    const velocity = this.deriveV || (this.checkV && cf === Math.floor(cf / cs) * cs);
+    if (velocity) {
+      let vx = 0, vy = 0, vz = 0;
+      for (let j = 0, q = 3 * base; j < W; j++, q += 3) {
+        const c1 = k1[j];
+        vx += c1 * pos[q];
+        vy += c1 * pos[q + 1];
+        vz += c1 * pos[q + 2];
+      }
+      vx *= inv;
+      vy *= inv;
+      vz *= inv;
+      if (this.deriveV) {
+        r[4][centre] = vx;
+        r[5][centre] = vy;
+        r[6][centre] = vz;
+      } else {
+        const gx = r[4][centre], gy = r[5][centre], gz = this.dims === 3 ? r[6][centre] : 0;
+        const d2 = (gx - vx) ** 2 + (gy - vy) ** 2 + (gz - vz) ** 2;
+        if (d2 === d2) {
+          this.mismatch += d2;
+          this.mismatchRef += vx * vx + vy * vy + vz * vz;
+        }
       }
     }
     if (this.deriveA) {
+      let ax = 0, ay = 0, az = 0;
+      for (let j = 0, q = 3 * base; j < W; j++, q += 3) {
+        const c2 = k2[j];
+        ax += c2 * pos[q];
+        ay += c2 * pos[q + 1];
+        az += c2 * pos[q + 2];
+      }
+      const inv2 = inv * inv;
       r[7][centre] = ax * inv2;
       r[8][centre] = ay * inv2;
       r[9][centre] = az * inv2;
