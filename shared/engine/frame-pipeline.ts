@@ -23,6 +23,21 @@ interface TrackState {
   pz: number;
 }
 
+/** Σ_j kernel[j]·pos[3(base + j) + a] for a = x, y, z into `out` (W samples, interleaved x, y, z). */
+function applyKernel(kernel: Float64Array, pos: Float64Array, base: number, W: number, out: Float64Array): Float64Array {
+  let sx = 0, sy = 0, sz = 0;
+  for (let j = 0, q = 3 * base; j < W; j++, q += 3) {
+    const c = kernel[j];
+    sx += c * pos[q];
+    sy += c * pos[q + 1];
+    sz += c * pos[q + 2];
+  }
+  out[0] = sx;
+  out[1] = sy;
+  out[2] = sz;
+  return out;
+}
+
 const COLS = 10; // frame, x, y, z, vx, vy, vz, ax, ay, az (track and line: Int32 rings)
 
 /**
@@ -58,6 +73,8 @@ export class FramePipeline {
   /** Frames between the velocity checks (kinematicsCheckInterval × fps, at least 1). */
   private readonly checkStride: number;
   private framesSinceEvict = 0;
+  /** Scratch of applyKernel (x, y, z sums). */
+  private readonly sum3 = new Float64Array(3);
 
   constructor(
     private readonly s: EngineSettings,
@@ -197,16 +214,8 @@ export class FramePipeline {
     const cf = r[0][centre], cs = this.checkStride;
     const velocity = this.deriveV || (this.checkV && cf === Math.floor(cf / cs) * cs);
     if (velocity) {
-      let vx = 0, vy = 0, vz = 0;
-      for (let j = 0, q = 3 * base; j < W; j++, q += 3) {
-        const c1 = k1[j];
-        vx += c1 * pos[q];
-        vy += c1 * pos[q + 1];
-        vz += c1 * pos[q + 2];
-      }
-      vx *= inv;
-      vy *= inv;
-      vz *= inv;
+      const d = applyKernel(k1, pos, base, W, this.sum3);
+      const vx = d[0] * inv, vy = d[1] * inv, vz = d[2] * inv;
       if (this.deriveV) {
         r[4][centre] = vx;
         r[5][centre] = vy;
@@ -221,17 +230,11 @@ export class FramePipeline {
       }
     }
     if (this.deriveA) {
-      let ax = 0, ay = 0, az = 0;
-      for (let j = 0, q = 3 * base; j < W; j++, q += 3) {
-        const c2 = k2[j];
-        ax += c2 * pos[q];
-        ay += c2 * pos[q + 1];
-        az += c2 * pos[q + 2];
-      }
+      const d = applyKernel(k2, pos, base, W, this.sum3);
       const inv2 = inv * inv;
-      r[7][centre] = ax * inv2;
-      r[8][centre] = ay * inv2;
-      r[9][centre] = az * inv2;
+      r[7][centre] = d[0] * inv2;
+      r[8][centre] = d[1] * inv2;
+      r[9][centre] = d[2] * inv2;
     }
   }
 
