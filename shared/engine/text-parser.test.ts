@@ -24,6 +24,8 @@ describe('parseDataBlock(bytes, start, end, layout)', () => {
     for (const [head, body] of [
       ['track_id,frame,x,y,z\n', '3,0,-0.000001,12.5,7\n10,1,123456.789012,-0,0.1\r\n'],
       ['track_id;frame;x;y\n', '1;0;1,25;-3,5\n2;0;0,1;999999999999999\n'],
+      // Digit counts around the switch from 32-bit to double accumulation (9 digits), odd and even, and the 15-digit limit.
+      ['track_id,frame,x,y\n', '1,2,12345678.9,123456789.5\n1,3,1234567890.1,0.12345678901234\n1,4,.5,7.\n1,5,-98765432.10,-0.000000001\n'],
     ]) {
       const { rows, parser } = parseAll(head);
       const bytes = enc(body);
@@ -37,7 +39,7 @@ describe('parseDataBlock(bytes, start, end, layout)', () => {
   it('returns null for lines only the full parser handles (quotes, exponents, names, blanks, missing fields)', () => {
     const { parser } = parseAll('track_id,frame,x,y\n');
     const layout = parser.blockLayout()!;
-    for (const line of ['"1",0,1,2\n', '1,0,1e-3,2\n', 'bee,0,1,2\n', '\n', '1,0,1\n', '1,0,1,2,3\n', '1,0,nan,2\n', '1,0,1,2']) {
+    for (const line of ['"1",0,1,2\n', '1,0,1e-3,2\n', 'bee,0,1,2\n', '\n', '1,0,1\n', '1,0,1,2,3\n', '1,0,nan,2\n', '1,0,1,2', '1,0,1.2.3,2\n', '1,0,-,2\n', '1,0,1234567890123456,2\n']) {
       const b = enc(line);
       expect(parseDataBlock(b, 0, b.length, layout)).toBeNull();
     }

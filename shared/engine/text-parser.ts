@@ -702,7 +702,7 @@ export function parseDataBlock(b: Uint8Array, start: number, end: number, layout
   const delim = layout.delimiter;
   const comma = layout.decimalComma ? 44 : -1;
   const pow10 = new Float64Array([1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15]);
-  if (fieldCount < 1) return null;
+  if (fieldCount < 1 || end <= start || b[end - 1] !== 10) return null;
   // Capacity from the mean length of the first 64 lines, +25 % (counting every line break costs a call per line);
   // if the block holds more lines, it is parsed again with the exact count (exactRows).
   let cap = exactRows ?? 0;
@@ -733,24 +733,40 @@ export function parseDataBlock(b: Uint8Array, start: number, end: number, layout
         neg = true;
         i++;
       }
-      let mant = 0, digits = 0, frac = 0;
-      for (; i < end; i++) {
-        c = b[i] - 48;
-        if (c < 0 || c > 9) break;
-        mant = mant * 10 + c;
-        digits++;
-      }
-      c = i < end ? b[i] : -1;
-      if (c === 46 || c === comma) {
-        for (i++; i < end; i++) {
-          c = b[i] - 48;
-          if (c < 0 || c > 9) break;
-          mant = mant * 10 + c;
-          digits++;
-          frac++;
+      // Digits accumulate two at a time in 32-bit integers while at most 9 are read (a shorter dependency chain
+      // than one double multiply-add per digit; ≈ 10 % faster on this file shape), then in a double; exact below
+      // 2^53 either way. One decimal separator may interrupt them. The block ends with a line break (checked
+      // above), so no bounds check is needed.
+      let mant = 0, digits = 0, dotAt = -1;
+      let d = b[i] - 48;
+      for (;;) {
+        while (digits <= 7 && d >= 0 && d <= 9) {
+          const e = b[i + 1] - 48;
+          if (e < 0 || e > 9) {
+            mant = (mant * 10 + d) | 0;
+            digits++;
+            d = e;
+            i++;
+            break;
+          }
+          mant = (mant * 100 + d * 10 + e) | 0;
+          digits += 2;
+          i += 2;
+          d = b[i] - 48;
         }
-        c = i < end ? b[i] : -1;
+        for (; d >= 0 && d <= 9; d = b[++i] - 48) {
+          mant = mant * 10 + d;
+          digits++;
+        }
+        c = b[i];
+        if ((c === 46 || c === comma) && dotAt < 0) {
+          dotAt = digits;
+          d = b[++i] - 48;
+          continue;
+        }
+        break;
       }
+      const frac = dotAt < 0 ? 0 : digits - dotAt;
       if (digits === 0 || digits > 15) return -1;
       const action = field < nActions ? actions[field] : -1;
       if (action === 0) {
