@@ -33,6 +33,7 @@
  *
  * Both threads run pure functions of shared/ (the worker gets their source text, no module loader).
  * Settings that trade cost for sampling (stored in the result's parameters): neighbourSampleInterval (0.04 s),
+ * kinematicsCheckInterval (0.04 s: given velocities compared with kernel-derived ones on every 4th frame at 100 fps),
  * autocorrelationOriginStride (5 frames), bruteForceBelow (260).
  * Memory: the reorder store (maxReorderRows rows, ≈50 MB), ±L frames of rows, one autocorrelation ring per
  * active track, ≤ 4 parse blocks and ≤ 32 autocorrelation batches (16k samples) in flight; not the file size.
