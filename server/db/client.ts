@@ -6,6 +6,7 @@ import { drizzle as drizzlePg } from 'drizzle-orm/node-postgres';
 import { migrate as migratePg } from 'drizzle-orm/node-postgres/migrator';
 import type { PgDatabase, PgQueryResultHKT } from 'drizzle-orm/pg-core';
 import pg from 'pg';
+import { watchCatalogueGeneration } from '../repositories/catalogue-generation';
 import * as schema from './schema';
 
 export type Schema = typeof schema;
@@ -32,6 +33,8 @@ export async function openPglite(opts: { dir?: string; template?: Blob }): Promi
   if (opts.dir) fs.mkdirSync(opts.dir, { recursive: true }); // PGlite does not create parents
   const client = await PGlite.create({ dataDir: opts.dir, loadDataDir: opts.template });
   const db = drizzlePglite(client, { schema, casing: 'snake_case' });
+  // This process alone owns the folder: the catalogue's generation is kept in memory from the triggers' notifications.
+  watchCatalogueGeneration(db as unknown as Db, (onValue) => client.listen('cohesia_catalogue', onValue));
   return {
     db: db as unknown as Db,
     kind: 'pglite',
