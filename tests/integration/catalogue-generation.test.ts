@@ -2,7 +2,7 @@ import fs from 'node:fs';
 import { eq, sql } from 'drizzle-orm';
 import { describe, expect, inject, it } from 'vitest';
 import { openPglite } from '../../server/db/client';
-import { organization } from '../../server/db/schema';
+import { catalogueGeneration, organization } from '../../server/db/schema';
 import { readCatalogueGeneration } from '../../server/repositories/catalogue-generation';
 
 /**
@@ -15,7 +15,7 @@ describe('readCatalogueGeneration(db) on PGlite', () => {
     const database = await openPglite({ template: await fs.openAsBlob(inject('templatePath')) });
     const { db } = database;
     try {
-      const stored = async () => (await db.execute(sql`select value from catalogue_generation where id = 1`)).rows[0] as { value: number };
+      const stored = async () => (await db.select({ value: catalogueGeneration.value }).from(catalogueGeneration))[0];
       const g0 = Number(await readCatalogueGeneration(db));
       expect(g0).toBe((await stored()).value);
       const [lab] = await db.insert(organization).values({ id: 'lab-gen-1', name: 'Fen Lab', slug: 'fen-lab', createdAt: new Date() }).returning();
