@@ -9,6 +9,7 @@ import { createBillingRepository } from '../repositories/billing.repository';
 import { createLabsRepository } from '../repositories/labs.repository';
 import { createPaymentsClient } from '../payments/stripe-client';
 import { createBillingService, type BillingService } from '../services/billing.service';
+import { createAuditRepository } from '../repositories/audit.repository';
 import { createQuotaService, type QuotaService } from '../services/quota.service';
 import {
   checkoutInput,
@@ -49,6 +50,7 @@ export function billingModule(deps: ModuleDeps): BillingModule {
     testMode: config.payments.secretKey.startsWith('sk_test_'),
     mailer: deps.mailer,
     log: log.child({ area: 'billing' }),
+    audit: createAuditRepository(database.db),
   });
   return { billing, quota };
 }

@@ -1,6 +1,7 @@
 import type { Logger } from 'pino';
 import type Stripe from 'stripe';
 import { AppError, notFound } from '../errors';
+import type { AuditRepository } from '../repositories/audit.repository';
 import type { BillingRepository, LabBillingRow, PlanRow } from '../repositories/billing.repository';
 import type { LabsRepository } from '../repositories/labs.repository';
 import type { LabContext } from '../middleware/authorize';
@@ -22,6 +23,8 @@ type Deps = {
   testMode: boolean;
   mailer?: Pick<Mailer, 'send'>;
   log: Logger;
+  /** The lab's audit log: plan and subscription changes from the provider's events. */
+  audit?: Pick<AuditRepository, 'record'>;
 };
 
 const LIVE = new Set(['active', 'trialing', 'past_due']);
@@ -94,7 +97,7 @@ export function createBillingService(d: Deps) {
   }
 
   /** Applies the provider's current view of a subscription, if the event is not older than what we hold. */
-  async function syncSubscription(subscriptionId: string, eventAt: number): Promise<{ labId: string | null; outcome: string }> {
+  async function syncSubscription(subscriptionId: string, eventAt: number, eventId: string): Promise<{ labId: string | null; outcome: string }> {
     const sub = await payments.subscriptions.retrieve(subscriptionId);
     const row = await labOfSubscription(sub);
     if (!row) return { labId: null, outcome: 'unknown-lab' };
@@ -103,8 +106,27 @@ export function createBillingService(d: Deps) {
       return { labId: row.labId, outcome: 'other-subscription' };
     }
     if (eventAt < row.providerEventAt) return { labId: row.labId, outcome: 'stale' };
-    const applied = await billing.applySubscriptionIfNewer(row.labId, eventAt, await subscriptionValues(sub));
+    const values = await subscriptionValues(sub);
+    const applied = await billing.applySubscriptionIfNewer(row.labId, eventAt, values);
+    if (applied) await auditSubscription(row, values, eventId);
     return { labId: row.labId, outcome: applied ? 'applied' : 'stale' };
+  }
+
+  /**
+   * A change of plan or of the subscription's status goes to the lab's audit log (no actor: the payment
+   * provider's event; its id in the detail). Recorded after the change is applied, not in its
+   * transaction: a crash in between leaves the change without its event, and a replay is not applied
+   * again (idempotent by event id), so no event is recorded twice.
+   */
+  async function auditSubscription(before: LabBillingRow, after: { planId: string | null; subscriptionStatus: string }, eventId: string) {
+    if (!d.audit) return;
+    const planName = async (id: string | null) => (id ? ((await billing.findPlan(id))?.name ?? id) : 'Free tier');
+    const detail = { labId: before.labId, providerEvent: eventId, status: after.subscriptionStatus };
+    if (before.planId !== after.planId) {
+      await d.audit.record({ actorId: null, action: 'storage_plan.changed', subjectType: 'lab', subjectId: before.labId, fromState: await planName(before.planId), toState: await planName(after.planId), detail });
+    } else if (before.subscriptionStatus !== after.subscriptionStatus) {
+      await d.audit.record({ actorId: null, action: 'subscription.status_changed', subjectType: 'lab', subjectId: before.labId, fromState: before.subscriptionStatus, toState: after.subscriptionStatus, detail });
+    }
   }
 
   async function leads(labId: string) {
@@ -121,12 +143,12 @@ export function createBillingService(d: Deps) {
         const customer = typeof s.customer === 'string' ? s.customer : s.customer?.id;
         if (customer) await billing.claimCustomer(labId, customer);
         const subId = typeof s.subscription === 'string' ? s.subscription : s.subscription?.id;
-        return subId ? syncSubscription(subId, event.created) : { labId, outcome: 'no-subscription' };
+        return subId ? syncSubscription(subId, event.created, event.id) : { labId, outcome: 'no-subscription' };
       }
       case 'customer.subscription.created':
       case 'customer.subscription.updated':
       case 'customer.subscription.deleted':
-        return syncSubscription(event.data.object.id, event.created);
+        return syncSubscription(event.data.object.id, event.created, event.id);
       case 'invoice.paid':
       case 'invoice.payment_failed': {
         const inv = event.data.object;

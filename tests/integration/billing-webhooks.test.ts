@@ -100,6 +100,16 @@ describe('webhook idempotency and order', () => {
     // A paid renewal clears the failure.
     await standIn(app, 'POST', `/subscriptions/${sub.id}/renew`, { outcome: 'paid' });
     await eventually(() => lead.get('/api/labs/tidewater-schooling/billing'), (r) => r.json.payment.failedAt === null && r.json.subscription.status === 'active');
+
+    // The lab's audit log shows the plan taken and the status changes, each once, with the provider's event.
+    type Shown = { action: string; actor: unknown; fromState: string | null; toState: string | null; detail: { providerEvent?: string } };
+    const audit: Shown[] = (await lead.get('/api/labs/tidewater-schooling/audit?limit=200')).json.events;
+    const planChanges = audit.filter((e) => e.action === 'storage_plan.changed');
+    expect(planChanges).toHaveLength(1);
+    expect(planChanges[0]).toMatchObject({ actor: null, fromState: 'Free tier', toState: plan.name });
+    expect(planChanges[0].detail.providerEvent).toMatch(/^evt_/);
+    const statuses = audit.filter((e) => e.action === 'subscription.status_changed').map((e) => `${e.fromState}→${e.toState}`).reverse();
+    expect(statuses).toEqual(['active→past_due', 'past_due→active']);
   });
 
   it('ends in the newest state when subscription.updated events arrive in reverse order', async () => {
