@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { formatBytes, formatMoney, toMinorUnits } from './billing-format';
+import { formatBytes, formatMoney, subscriptionStatusWords, toMinorUnits } from './billing-format';
 
 describe('formatBytes(bytes)', () => {
   it('uses decimal units with a few significant digits', () => {
@@ -33,5 +33,15 @@ describe('toMinorUnits(amount, currency)', () => {
     expect(toMinorUnits('12.505', 'EUR')).toBeNaN();
     expect(toMinorUnits('1,5', 'EUR')).toBeNaN();
     expect(toMinorUnits('500', 'JPY')).toBe(500);
+  });
+});
+
+describe('subscriptionStatusWords(status)', () => {
+  it('words the provider statuses as the storage page does, and keeps an unknown one as it is', () => {
+    expect(subscriptionStatusWords('past_due')).toBe('Payment due');
+    expect(subscriptionStatusWords('active')).toBe('Active');
+    expect(subscriptionStatusWords('none')).toBe('No subscription');
+    expect(subscriptionStatusWords(null)).toBe('No subscription');
+    expect(subscriptionStatusWords('something_new')).toBe('something_new');
   });
 });

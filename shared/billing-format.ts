@@ -36,3 +36,20 @@ export function toMinorUnits(amount: string, currency: string): number {
   if (!m || (m[2]?.length ?? 0) > digits) return NaN;
   return Number(m[1]) * 10 ** digits + Number((m[2] ?? '').padEnd(digits, '0') || 0);
 }
+
+/** The payment provider's subscription statuses in the words the storage page uses ("Payment due"). */
+const SUBSCRIPTION_STATUS_WORDS: Record<string, string> = {
+  none: 'No subscription',
+  active: 'Active',
+  trialing: 'Trial',
+  past_due: 'Payment due',
+  unpaid: 'Unpaid',
+  canceled: 'Cancelled',
+  incomplete: 'Awaiting first payment',
+  incomplete_expired: 'First payment not made',
+  paused: 'Paused',
+};
+
+export function subscriptionStatusWords(status: string | null | undefined): string {
+  return status ? (SUBSCRIPTION_STATUS_WORDS[status] ?? status) : 'No subscription';
+}

@@ -10,6 +10,7 @@ import type { Mailer } from '../mail/mailer';
 import { verifyWebhook, type PaymentsClient } from '../payments/stripe-client';
 import { billingMail } from '../mail/billing-templates';
 import { paths } from '../../shared/paths';
+import { subscriptionStatusWords } from '../../shared/billing-format';
 import type { CheckoutResult, CreatePlanInput, InvoiceView, LabBillingView, StoragePlanView, UpdatePlanInput } from '../../shared/contracts';
 
 type Deps = {
@@ -125,7 +126,8 @@ export function createBillingService(d: Deps) {
     if (before.planId !== after.planId) {
       await d.audit.record({ actorId: null, action: 'storage_plan.changed', subjectType: 'lab', subjectId: before.labId, fromState: await planName(before.planId), toState: await planName(after.planId), detail });
     } else if (before.subscriptionStatus !== after.subscriptionStatus) {
-      await d.audit.record({ actorId: null, action: 'subscription.status_changed', subjectType: 'lab', subjectId: before.labId, fromState: before.subscriptionStatus, toState: after.subscriptionStatus, detail });
+      const words = subscriptionStatusWords;
+      await d.audit.record({ actorId: null, action: 'subscription.status_changed', subjectType: 'lab', subjectId: before.labId, fromState: words(before.subscriptionStatus), toState: words(after.subscriptionStatus), detail });
     }
   }
 

@@ -108,6 +108,20 @@ describe('browser: storage plans and hosted checkout', () => {
       }, { timeout: 15_000, interval: 500 })
       .toBe(true);
     await snap(page, 'billing-06-payment-failed');
+
+    // The lab's audit log shows the plan taken and the status change, made by the provider's events.
+    await page.goto(`${env.app.url}/labs/fenmoor-swarm-ecology/audit`);
+    const planRow = page.getByRole('row').filter({ hasText: 'Storage plan changed' });
+    await planRow.getByText('Cohesia (automatic)').waitFor();
+    await planRow.getByText('Nymph 50 GB').waitFor();
+    await planRow.getByText('Free tier').waitFor();
+    await expect.poll(async () => {
+      await page.reload();
+      // The table is filled once the log has loaded: wait for the row that is already there.
+      await planRow.waitFor();
+      return page.getByRole('row').filter({ hasText: 'Subscription status changed' }).filter({ hasText: 'Active → Payment due' }).count();
+    }, { timeout: 15_000, interval: 500 }).toBe(1);
+    await snap(page, 'billing-07-audit-plan-change');
     await context.close();
   });
 });

@@ -109,7 +109,7 @@ describe('webhook idempotency and order', () => {
     expect(planChanges[0]).toMatchObject({ actor: null, fromState: 'Free tier', toState: plan.name });
     expect(planChanges[0].detail.providerEvent).toMatch(/^evt_/);
     const statuses = audit.filter((e) => e.action === 'subscription.status_changed').map((e) => `${e.fromState}→${e.toState}`).reverse();
-    expect(statuses).toEqual(['active→past_due', 'past_due→active']);
+    expect(statuses).toEqual(['Active→Payment due', 'Payment due→Active']);
   });
 
   it('ends in the newest state when subscription.updated events arrive in reverse order', async () => {
