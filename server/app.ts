@@ -44,6 +44,7 @@ import { releaseJsonLd } from './middleware/release-json-ld';
 import { securityHeaders } from './middleware/security-headers';
 import { sameOriginWrites } from './middleware/same-origin';
 import { createRateLimits } from './middleware/rate-limits';
+import { createRateLimitRepository } from './repositories/rate-limits.repository';
 import { createAuditRepository } from './repositories/audit.repository';
 import { createAuditService } from './services/audit.service';
 import { auditRoutes } from './routes/audit.routes';
@@ -133,7 +134,8 @@ export function createApp(deps: AppDeps) {
 
   app.use(securityHeaders(config, { dev: deps.devClient }));
 
-  const limits = createRateLimits(config.security.rateLimits);
+  // Several instances share a PostgreSQL server, so they share the counters there too.
+  const limits = createRateLimits(config.security.rateLimits, database.kind === 'postgres' ? createRateLimitRepository(database.db) : undefined);
   // Password guessing, sign-up and reset mail are limited per address before better-auth sees them.
   app.post('/api/auth/sign-in/email', limits.signIn);
   app.post('/api/auth/sign-up/email', limits.signUp);

@@ -10,7 +10,8 @@ import { readCatalogueGeneration } from '../../server/repositories/catalogue-gen
  * (migration 0015) instead of read on every request. Source: PostgreSQL's NOTIFY semantics (delivered at
  * commit, not at all after a rollback), which PGlite follows; checked here on PGlite itself.
  */
-describe('readCatalogueGeneration(db) on PGlite', () => {
+// PGlite only (the embedded pass): on a PostgreSQL server the generation is read on every request.
+describe.skipIf(!!inject('pgAdminUrl'))('readCatalogueGeneration(db) on PGlite', () => {
   it('moves on as soon as a writing transaction has committed, and not for a rolled-back one', async () => {
     const database = await openPglite({ template: await fs.openAsBlob(inject('templatePath')) });
     const { db } = database;

@@ -126,3 +126,13 @@ export const apiToken = pgTable(
   },
   (t) => [index('api_token_user_idx').on(t.userId)],
 );
+
+/**
+ * Rate-limit counters shared by every instance on a PostgreSQL server (fixed windows per limiter and
+ * address; server/middleware/rate-limits.ts). The embedded database keeps them in the one process's memory.
+ */
+export const rateLimitHit = pgTable('rate_limit_hit', {
+  key: text().primaryKey(),
+  hits: integer().notNull(),
+  resetAt: timestamp({ withTimezone: true }).notNull(),
+});
