@@ -115,6 +115,7 @@ describe('browser: storage plans and hosted checkout', () => {
     await planRow.getByText('Cohesia (automatic)').waitFor();
     await planRow.getByText('Nymph 50 GB').waitFor();
     await planRow.getByText('Free tier').waitFor();
+    await planRow.getByText('Fenmoor Swarm Ecology Group').waitFor(); // a lab target is named, not only its id
     await expect.poll(async () => {
       await page.reload();
       // The table is filled once the log has loaded: wait for the row that is already there.

@@ -123,6 +123,7 @@ function EventRow({ event: e, showLab }: { event: AuditEventView; showLab: boole
       <td className="py-2 pr-4">
         {actionLabel(e.targetType)} <code className="break-all text-xs text-ink/70">{e.targetId}</code>
         {typeof e.detail?.member === 'string' ? <span className="block text-ink/80">{e.detail.member}</span> : null}
+        {e.targetType === 'lab' && e.lab ? <span className="block text-ink/80">{e.lab.name}</span> : null}
       </td>
       <td className="py-2 pr-4">{e.fromState || e.toState ? `${e.fromState ?? '—'} → ${e.toState ?? '—'}` : '—'}</td>
     </tr>
