@@ -90,3 +90,62 @@ describe('correlationTimes(rho, lagStep)', () => {
     expect(correlationTimes([], lag).eFoldingTime).toBeNaN();
   });
 });
+
+describe('createAutocorrelationAccumulator: windows, long gaps and reading the result early', () => {
+  /** Reference: every pair (origin on the stride, later sample of the same track within maxLag), summed directly. */
+  function direct(samples: Map<number, Map<number, [number, number, number]>>, maxLag: number, stride: number) {
+    const sums = new Float64Array(maxLag + 1), pairs = new Float64Array(maxLag + 1);
+    for (const track of samples.values())
+      for (const [f, a] of track) {
+        if (((f % stride) + stride) % stride !== 0) continue;
+        for (let l = 0; l <= maxLag; l++) {
+          const b = track.get(f + l);
+          if (!b) continue;
+          sums[l] += a[0] * b[0] + a[1] * b[1] + a[2] * b[2];
+          pairs[l]++;
+        }
+      }
+    return { rho: Array.from(sums, (s, l) => (pairs[l] > 0 ? s / pairs[l] / (sums[0] / pairs[0]) : NaN)), pairs: Array.from(pairs) };
+  }
+
+  it('agrees with the direct sum over pairs for tracks with short and long gaps, ends and restarts', () => {
+    // Source: derived (the estimator's definition, summed pair by pair); gaps of 1 frame, of more than the
+    // window (2 maxLag + 1 frames) and tracks ending early exercise every path of the windows.
+    const rnd = createSeededRandom(77);
+    const maxLag = 12, stride = 3;
+    const acc = createAutocorrelationAccumulator(maxLag, stride);
+    const samples = new Map<number, Map<number, [number, number, number]>>();
+    const gapAt = (k: number, f: number) => (k === 1 && f >= 40 && f < 41) || (k === 2 && f >= 30 && f < 95) || (k === 3 && f > 70) || (k === 4 && f < 20);
+    for (let f = 0; f < 200; f++) {
+      const ids: number[] = [], x: number[] = [], y: number[] = [], z: number[] = [];
+      for (let k = 0; k < 6; k++) {
+        if (gapAt(k, f)) continue;
+        const v: [number, number, number] = [rnd.normal(), rnd.normal(), rnd.normal()];
+        if (!samples.has(k)) samples.set(k, new Map());
+        samples.get(k)!.set(f, v);
+        ids.push(k), x.push(v[0]), y.push(v[1]), z.push(v[2]);
+      }
+      acc.addFrame(f, ids, x, y, z, ids.length);
+      if (f === 120) acc.evictBefore(100); // track 3 ended at frame 70: its ring is freed, its products kept
+    }
+    const ref = direct(samples, maxLag, stride);
+    const got = acc.result();
+    expect(Array.from(got.pairs)).toEqual(ref.pairs);
+    for (let l = 0; l <= maxLag; l++) expect(Math.abs(got.rho[l] - ref.rho[l])).toBeLessThan(1e-12);
+  });
+
+  it('gives the same result when read twice, and goes on after an early read', () => {
+    // Source: derived (result() adds the pending origins to copies, not to the running sums).
+    const tracks = ouTracks(5, 90, 4, 12);
+    const a = createAutocorrelationAccumulator(10, 2), b = createAutocorrelationAccumulator(10, 2);
+    for (let f = 0; f < 90; f++)
+      tracks.forEach((t, k) => {
+        a.add(k, f, t.vx[f], t.vy[f], t.vz[f]);
+        b.add(k, f, t.vx[f], t.vy[f], t.vz[f]);
+        if (f === 45 && k === 4) b.result(); // read half way
+      });
+    expect(Array.from(a.result().pairs)).toEqual(Array.from(b.result().pairs));
+    expect(Array.from(a.result().rho)).toEqual(Array.from(b.result().rho));
+    expect(Array.from(a.result().rho)).toEqual(Array.from(a.result().rho));
+  });
+});
