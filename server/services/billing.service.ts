@@ -5,7 +5,7 @@ import type { AuditRepository } from '../repositories/audit.repository';
 import type { BillingRepository, LabBillingRow, PlanRow } from '../repositories/billing.repository';
 import type { LabsRepository } from '../repositories/labs.repository';
 import type { LabContext } from '../middleware/authorize';
-import type { QuotaService } from './quota.service';
+import { FREE_TIER_NAME, type QuotaService } from './quota.service';
 import type { Mailer } from '../mail/mailer';
 import { verifyWebhook, type PaymentsClient } from '../payments/stripe-client';
 import { billingMail } from '../mail/billing-templates';
@@ -121,13 +121,12 @@ export function createBillingService(d: Deps) {
    */
   async function auditSubscription(before: LabBillingRow, after: { planId: string | null; subscriptionStatus: string }, eventId: string) {
     if (!d.audit) return;
-    const planName = async (id: string | null) => (id ? ((await billing.findPlan(id))?.name ?? id) : 'Free tier');
+    const planName = async (id: string | null) => (id ? ((await billing.findPlan(id))?.name ?? id) : FREE_TIER_NAME);
     const detail = { labId: before.labId, providerEvent: eventId, status: after.subscriptionStatus };
     if (before.planId !== after.planId) {
       await d.audit.record({ actorId: null, action: 'storage_plan.changed', subjectType: 'lab', subjectId: before.labId, fromState: await planName(before.planId), toState: await planName(after.planId), detail });
     } else if (before.subscriptionStatus !== after.subscriptionStatus) {
-      const words = subscriptionStatusWords;
-      await d.audit.record({ actorId: null, action: 'subscription.status_changed', subjectType: 'lab', subjectId: before.labId, fromState: words(before.subscriptionStatus), toState: words(after.subscriptionStatus), detail });
+      await d.audit.record({ actorId: null, action: 'subscription.status_changed', subjectType: 'lab', subjectId: before.labId, fromState: subscriptionStatusWords(before.subscriptionStatus), toState: subscriptionStatusWords(after.subscriptionStatus), detail });
     }
   }
 

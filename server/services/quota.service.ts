@@ -71,7 +71,8 @@ export type StorageUsageSummary = {
   blockedReason: string | null;
 };
 
-const FREE_TIER_NAME = 'Free tier';
+/** What a lab without a paid plan is on (storage page, audit log). */
+export const FREE_TIER_NAME = 'Free tier';
 
 const mediaLabel = (t: string) =>
   /csv|tab-separated|tsv/.test(t) ? 'Trajectory tables' : /gzip|zip|x-tar/.test(t) ? 'Compressed files' : /json|yaml|xml/.test(t) ? 'Metadata documents' : /^image\//.test(t) ? 'Images' : /^video\//.test(t) ? 'Video' : 'Other files';
